@@ -1,0 +1,5 @@
+#pragma once
+namespace contrasta {
+// The library version, "MAJOR.MINOR.PATCH".
+const char* version();
+}  // namespace contrasta
