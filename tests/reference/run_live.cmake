@@ -1,0 +1,10 @@
+# Generates fresh random reference fixtures with scipy/statsmodels and runs the C++ test on them.
+execute_process(COMMAND /usr/bin/python3 ${SCRIPT} --live --out ${OUT} RESULT_VARIABLE rc)
+if(NOT rc EQUAL 0)
+  message(FATAL_ERROR "fixture script failed: ${SCRIPT}")
+endif()
+set(ENV{CONTRASTA_FIXTURE} ${OUT})
+execute_process(COMMAND ${TEST} RESULT_VARIABLE rc)
+if(NOT rc EQUAL 0)
+  message(FATAL_ERROR "live differential test failed: ${TEST} on ${OUT}")
+endif()
