@@ -1,0 +1,342 @@
+// The recommendation: an explicit rule set over the facts of methods.md section 7. Each rule is
+// documented in docs/diagnostics.md with its source (or marked as common practice). The rules
+// choose the primary method from the data's shape, ties and group sizes; the spread facts and
+// the variance tests explain the choice but never gate it alone (Zimmerman 2004, Br. J. Math.
+// Stat. Psychol. 57:173-181).
+#include "contrasta/recommend.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <string>
+
+#include "contrasta/error.hpp"
+#include "contrasta/methods.hpp"
+
+namespace contrasta {
+namespace {
+
+// Thresholds of the rules (docs/diagnostics.md, "The rule set").
+constexpr std::size_t tiny_group = 5;              // R1: smallest n below this
+constexpr double discrete_tied_share = 0.5;        // R2: share of tied observations
+constexpr double discrete_scale_tied_share = 0.3;  // R2: on a small whole-number scale
+constexpr std::size_t shape_min_n = 8;             // R3: skewness/kurtosis read from n >= 8
+constexpr double skew_limit = 1.0;                 // R3: |G1| >= 1, "highly skewed"
+constexpr double kurtosis_limit = 3.0;             // R3: excess kurtosis >= 3
+constexpr double sd_ratio_limit = 2.0;             // S1: common-practice warning sign
+constexpr double pooled_se_limit = 0.9;            // S1: pooled SE below 0.9 of the separate SE
+constexpr double balanced_limit = 1.5;             // S2: SD ratio and n ratio both <= 1.5
+
+std::string number(double v, int significant = 3) {
+  if (std::isnan(v)) return "n/a";
+  if (std::isinf(v)) return v > 0 ? "infinite" : "-infinite";
+  char buf[64];
+  std::snprintf(buf, sizeof buf, "%.*g", significant, v);
+  return buf;
+}
+
+// "p = 0.0123" or "p < 0.0001".
+std::string p_text(double p) {
+  if (std::isnan(p)) return "p n/a";
+  if (p < 0.0001) return "p < 0.0001";
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "p = %.4f", p);
+  return buf;
+}
+
+std::string fixed(double v, int decimals = 2) {
+  if (std::isnan(v)) return "n/a";
+  char buf[64];
+  std::snprintf(buf, sizeof buf, "%.*f", decimals, v);
+  return buf;
+}
+
+std::string percent(double share, int decimals = 1) {
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%.*f%%", decimals, 100 * share);
+  return buf;
+}
+
+std::string quoted(const prepared_data& p, std::size_t level) { return "'" + p.data.levels[level] + "'"; }
+
+// Whether this build can run a method (methods not yet in the build throw analysis_error).
+bool method_available(const std::string& method) {
+  static const prepared_data probe = prepare(make_dataset({"a", "b"}, {{1, 2, 3, 4.5}, {2, 3.5, 5, 7, 8}}));
+  contrast c;
+  c.name = "b - a";
+  c.expression = "b - a";
+  c.coefficients = {-1, 1};
+  analysis_options o;
+  o.resamples = 99;
+  o.threads = 1;
+  try {
+    (void)run_method(method, probe, c, o);
+    return true;
+  } catch (const analysis_error&) {
+    return false;
+  }
+}
+
+struct facts {
+  std::size_t smallest_n = 0;
+  std::size_t smallest_level = 0;
+  bool discrete = false;
+  double max_abs_skew = 0;
+  std::size_t skew_level = 0;
+  double max_kurtosis = -INFINITY;
+  std::size_t kurtosis_level = 0;
+  bool skewed = false, heavy_tailed = false;
+  double levene_median_p = not_available;
+  double residual_shapiro_p = not_available, residual_shapiro_w = not_available;
+};
+
+facts gather(const diagnostics_report& d) {
+  facts f;
+  f.smallest_n = d.spread.smallest_n;
+  f.smallest_level = d.spread.smallest_n_level;
+  f.discrete = d.ties.tied_share >= discrete_tied_share ||
+               (d.ties.small_integer_scale && d.ties.tied_share >= discrete_scale_tied_share);
+  for (const auto& s : d.shapes) {
+    if (s.n < shape_min_n) continue;
+    if (std::abs(s.skewness) > f.max_abs_skew) {
+      f.max_abs_skew = std::abs(s.skewness);
+      f.skew_level = s.level;
+    }
+    if (s.excess_kurtosis > f.max_kurtosis) {
+      f.max_kurtosis = s.excess_kurtosis;
+      f.kurtosis_level = s.level;
+    }
+  }
+  f.skewed = f.max_abs_skew >= skew_limit;
+  f.heavy_tailed = f.max_kurtosis >= kurtosis_limit;
+  for (const auto& v : d.variance)
+    if (v.test == "levene-median") f.levene_median_p = v.p_value;
+  for (const auto& n : d.normality)
+    if (!n.level) {
+      f.residual_shapiro_p = n.p_value;
+      f.residual_shapiro_w = n.statistic;
+    }
+  return f;
+}
+
+void add_unique(std::vector<std::string>& list, const std::string& item) {
+  if (std::find(list.begin(), list.end(), item) == list.end()) list.push_back(item);
+}
+
+const calibration_row* find_row(const calibration_report& c, const std::string& method, const std::string& model) {
+  for (const auto& r : c.rows)
+    if (r.method == method && r.model == model) return &r;
+  return nullptr;
+}
+
+// Liberal beyond Monte Carlo noise: even the lower end of a 99% interval exceeds 1.5 alpha
+// (Bradley 1978).
+bool clearly_liberal(const calibration_row& r) { return r.type1_error - 2.576 * r.type1_se > 1.5 * r.alpha; }
+
+std::string calibration_text(const calibration_row& r) {
+  return r.method + " rejected " + percent(r.type1_error) + " (Monte Carlo SE " + percent(r.type1_se, 2) + ") of " +
+         std::to_string(r.datasets) + " simulated equal-means datasets (" + r.model + " errors) at alpha " +
+         number(r.alpha);
+}
+
+// Calibration (rule C1): keep the primary method if the simulation of this design shows it
+// holding alpha, otherwise move to the calibrated method closest to alpha within Bradley's band.
+void apply_calibration(recommendation& rec, const calibration_report& c, const std::vector<std::string>& preference) {
+  std::vector<std::string> models;
+  for (const auto& r : c.rows) add_unique(models, r.model);
+  auto rows_of = [&](const std::string& method) {
+    std::vector<const calibration_row*> rows;
+    for (const auto& m : models)
+      if (const auto* r = find_row(c, method, m)) rows.push_back(r);
+    return rows;
+  };
+  const auto primary_rows = rows_of(rec.method);
+  if (primary_rows.empty()) return;
+  rec.rules.push_back("C1 calibration");
+  bool liberal = false;
+  for (const auto* r : primary_rows) liberal = liberal || clearly_liberal(*r);
+  if (!liberal) {
+    for (const auto* r : primary_rows) {
+      rec.reasons.push_back("calibration on this design: " + calibration_text(*r) +
+                            (within_bradley_band(r->type1_error, r->alpha) ? ", inside Bradley's (1978) band alpha/2 to 3 alpha/2"
+                                                                           : ", outside Bradley's (1978) band alpha/2 to 3 alpha/2 but within Monte Carlo noise"));
+    }
+  } else {
+    std::string best;
+    double best_distance = INFINITY;
+    for (const auto& method : preference) {
+      const auto rows = rows_of(method);
+      if (rows.size() != primary_rows.size()) continue;
+      double distance = 0;
+      bool ok = true;
+      for (const auto* r : rows) {
+        ok = ok && within_bradley_band(r->type1_error, r->alpha) && !clearly_liberal(*r);
+        distance = std::max(distance, std::abs(r->type1_error - r->alpha));
+      }
+      if (ok && distance < best_distance - 1e-12) {
+        best = method;
+        best_distance = distance;
+      }
+    }
+    for (const auto* r : primary_rows) rec.reasons.push_back("calibration on this design: " + calibration_text(*r) + ": too liberal");
+    if (!best.empty()) {
+      for (const auto* r : rows_of(best)) rec.reasons.push_back("calibration on this design: " + calibration_text(*r));
+      add_unique(rec.alternatives, rec.method);
+      rec.method = best;
+      if (best == "pooled" || best == "welch" || best == "trimmed") rec.interval_method = best;
+      rec.reasons.push_back("so " + best + " is recommended: it holds alpha best on this design");
+    } else {
+      rec.notes.push_back("no calibrated method held alpha on this design: read every result with caution");
+    }
+  }
+  // Say so when the classical pooled t fails on this design, whatever was chosen.
+  if (rec.method != "pooled") {
+    for (const auto* r : rows_of("pooled"))
+      if (clearly_liberal(*r)) rec.reasons.push_back("calibration on this design: " + calibration_text(*r) + ": too liberal");
+  }
+  for (const auto* r : rows_of(rec.method))
+    if (r->power)
+      rec.reasons.push_back("simulated power of " + rec.method + " for " + r->power_contrast + " (" + r->model +
+                            " errors): " + percent(*r->power) + " (Monte Carlo SE " + percent(*r->power_se, 2) + ")");
+}
+
+}  // namespace
+
+recommendation recommend(const prepared_data& p, const analysis_options& o) {
+  return recommend(p, diagnose(p), nullptr, o);
+}
+
+recommendation recommend(const prepared_data& p, const diagnostics_report& d, const calibration_report* calibration,
+                         const analysis_options& o) {
+  (void)o;
+  recommendation rec;
+  const facts f = gather(d);
+  const auto& s = d.spread;
+  const std::size_t k = p.groups.size();
+  if (k < 2) {
+    rec.method = rec.interval_method = "welch";
+    rec.reasons.push_back("only " + std::to_string(k) + " level: no comparison to make");
+    return rec;
+  }
+
+  // Primary method: the first rule that applies (R1 to R4).
+  if (f.smallest_n < 2) {
+    rec.rules.push_back("R1 tiny groups");
+    rec.method = rec.interval_method = "pooled";
+    rec.reasons.push_back("level " + quoted(p, f.smallest_level) + " has n = " + std::to_string(f.smallest_n) +
+                          ": it has no variance of its own, so only the pooled variance can serve; pooled assumes "
+                          "equal variances (read the spread figures below)");
+    rec.alternatives = {"permutation"};
+  } else if (f.smallest_n < tiny_group) {
+    rec.rules.push_back("R1 tiny groups");
+    rec.method = f.discrete ? "rank" : "permutation";
+    rec.interval_method = "welch";
+    rec.reasons.push_back("smallest group n = " + std::to_string(f.smallest_n) + " (level " + quoted(p, f.smallest_level) +
+                          "): too few to judge normality or trust a t approximation; a permutation test needs "
+                          "neither and is exact when the arrangements are few (Fisher 1935; Pitman 1937)");
+    if (f.discrete)
+      rec.reasons.push_back(percent(d.ties.tied_share, 0) + " of observations are tied: the permutation test on mid-ranks "
+                            "handles ties exactly (Conover & Iman 1981)");
+    rec.alternatives = {f.discrete ? "permutation" : "rank", "welch"};
+  } else if (f.discrete) {
+    rec.rules.push_back("R2 ties and discrete scale");
+    rec.method = "rank";
+    rec.interval_method = "welch";
+    std::string what = d.ties.small_integer_scale
+                           ? "responses are whole numbers from " + number(d.ties.scale_min, 6) + " to " + number(d.ties.scale_max, 6) +
+                                 " with " + std::to_string(d.ties.distinct_values) + " distinct values"
+                           : "responses take " + std::to_string(d.ties.distinct_values) + " distinct values";
+    rec.reasons.push_back(what + " and " + percent(d.ties.tied_share, 0) +
+                          " of observations are tied: a discrete scale, so the permutation test on mid-ranks "
+                          "(exact for small samples, ties allowed; Conover & Iman 1981) is the primary test");
+    rec.notes.push_back("intervals for mean differences by Welch; on a rating scale read them as differences of "
+                        "average scores");
+    rec.alternatives = {"brunner-munzel", "permutation", "welch"};
+  } else if (!d.outliers.empty() || f.skewed || f.heavy_tailed) {
+    rec.rules.push_back("R3 heavy tails or outliers");
+    rec.method = rec.interval_method = "trimmed";
+    if (!d.outliers.empty()) {
+      const auto worst = std::max_element(d.outliers.begin(), d.outliers.end(), [](const outlier& a, const outlier& b) {
+        return std::abs(a.robust_z) < std::abs(b.robust_z);
+      });
+      rec.reasons.push_back(std::to_string(d.outliers.size()) + " outlier" + (d.outliers.size() == 1 ? "" : "s") +
+                            " by the modified z-score rule (|z| > 3.5; Iglewicz & Hoaglin 1993), the most extreme " +
+                            number(worst->value, 6) + " in level " + quoted(p, worst->level) + " (row " +
+                            std::to_string(worst->row) + ", z = " + number(worst->robust_z) + ")");
+    }
+    if (f.skewed)
+      rec.reasons.push_back("skewness " + fixed(f.max_abs_skew) + " in level " + quoted(p, f.skew_level) +
+                            " (|G1| >= 1: highly skewed, common practice)");
+    if (f.heavy_tailed)
+      rec.reasons.push_back("excess kurtosis " + fixed(f.max_kurtosis, 1) + " in level " + quoted(p, f.kurtosis_level) +
+                            " (>= 3: heavy tails, common practice)");
+    rec.reasons.push_back("trimmed means (20%, Yuen 1974) resist outliers and heavy tails and allow unequal variances "
+                          "(Wilcox, Introduction to Robust Estimation and Hypothesis Testing)");
+    rec.alternatives = {"rank", "welch", "permutation"};
+  } else {
+    rec.rules.push_back("R4 default");
+    rec.method = rec.interval_method = "welch";
+    rec.reasons.push_back("no tiny groups (smallest n = " + std::to_string(f.smallest_n) + "), no outliers, largest |skewness| " +
+                          fixed(f.max_abs_skew) + ": means are a fair summary; Welch is the sound default, "
+                          "losing little when variances are equal (Delacre, Lakens & Leys 2017)");
+    rec.alternatives = {"trimmed", "permutation"};
+  }
+
+  // Spread facts (S1, S2): explain the pooled-versus-separate choice with numbers.
+  if (!std::isnan(s.sd_ratio)) {
+    const std::string sd_text = "SD ratio " + number(s.sd_ratio, 2) + " (largest SD " +
+                                number(p.groups[s.largest_sd_level].sd) + " in " + quoted(p, s.largest_sd_level) + ", n = " +
+                                std::to_string(p.groups[s.largest_sd_level].n) + "; smallest " +
+                                number(p.groups[s.smallest_sd_level].sd) + " in " + quoted(p, s.smallest_sd_level) + ", n = " +
+                                std::to_string(p.groups[s.smallest_sd_level].n) + ")";
+    const bool unequal = s.sd_ratio > sd_ratio_limit || s.pooled_se_ratio < pooled_se_limit;
+    if (unequal && s.pooled_se_ratio < 1 && s.larger_variances_in_smaller_groups) {
+      rec.rules.push_back("S1 unequal variances");
+      rec.reasons.push_back(sd_text + " with the larger variances in the smaller groups: pooled t rejects too often "
+                            "(Box 1954); for " + quoted(p, s.pooled_se_pair_first) + " vs " + quoted(p, s.pooled_se_pair_second) +
+                            " the pooled standard error is " + number(s.pooled_se_ratio, 2) +
+                            " times the separate-variance one");
+    } else if (unequal) {
+      rec.rules.push_back("S1 unequal variances");
+      rec.reasons.push_back(sd_text + ": variances differ; pooled t is unreliable here (conservative where the larger "
+                            "variances sit in the larger groups, liberal where they sit in the smaller; Box 1954)");
+    } else if (s.sd_ratio <= balanced_limit && s.n_ratio <= balanced_limit) {
+      rec.rules.push_back("S2 balanced and homogeneous");
+      rec.reasons.push_back(sd_text + " and n ratio " + number(s.n_ratio, 2) +
+                            ": spreads and sizes are balanced, so pooled and Welch nearly agree");
+      if (rec.method == "welch") add_unique(rec.alternatives, "pooled");
+    } else {
+      rec.reasons.push_back(sd_text + " and n ratio " + number(s.n_ratio, 2) + ": below the common-practice warning sign of 2");
+    }
+  }
+
+  // Reported, never a gate (S3).
+  if (!std::isnan(f.levene_median_p))
+    rec.reasons.push_back("Brown-Forsythe (median-centred Levene) test " + p_text(f.levene_median_p) +
+                          ": reported, not used as a gate, since choosing a test after a variance pre-test distorts "
+                          "error rates (Zimmerman 2004)");
+  if (!std::isnan(f.residual_shapiro_p))
+    rec.reasons.push_back("Shapiro-Wilk on the pooled residuals W = " + fixed(f.residual_shapiro_w, 4) + ", " +
+                          p_text(f.residual_shapiro_p) + ": reported; the shape figures above carry the decision");
+
+  if (calibration && !calibration->rows.empty()) {
+    std::vector<std::string> preference = {"welch", "trimmed", "permutation", "rank", "brunner-munzel", "bootstrap", "pooled"};
+    std::stable_partition(preference.begin(), preference.end(), [&](const std::string& m) { return m == rec.method; });
+    apply_calibration(rec, *calibration, preference);
+  }
+
+  // A method this build cannot run falls back to Welch (or pooled for a group of one).
+  if (!method_available(rec.method)) {
+    const std::string fallback = f.smallest_n < 2 ? "pooled" : "welch";
+    rec.notes.push_back(rec.method + " would be preferred but is not available in this build: " + fallback + " instead");
+    rec.method = fallback;
+  }
+  if (!method_available(rec.interval_method)) rec.interval_method = f.smallest_n < 2 ? "pooled" : "welch";
+  std::vector<std::string> alternatives;
+  for (const auto& a : rec.alternatives)
+    if (a != rec.method && method_available(a)) alternatives.push_back(a);
+  rec.alternatives = alternatives;
+  return rec;
+}
+
+}  // namespace contrasta
