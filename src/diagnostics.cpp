@@ -28,6 +28,7 @@ diagnostics_report diagnose(const prepared_data& p) {
   r.variance = variance_tests(p);
   r.normality = normality_tests(p);
   r.shapes = describe_shapes(p);
+  r.residuals = describe_residual_shape(p);
   r.outliers = find_outliers(p.data);
   r.ties = describe_ties(p.data);
   r.spread = describe_spread(p);

@@ -58,4 +58,20 @@ std::vector<group_shape> describe_shapes(const prepared_data& p) {
   return out;
 }
 
+std::vector<double> standardized_residuals(const prepared_data& p) {
+  std::vector<double> out;
+  out.reserve(p.data.size());
+  for (std::size_t i = 0; i < p.groups.size(); ++i) {
+    const auto& g = p.groups[i];
+    if (g.n < 2 || !(g.sd > 0)) continue;
+    for (double y : p.data.group(i)) out.push_back((y - g.centred_mean) / g.sd);
+  }
+  return out;
+}
+
+residual_shape describe_residual_shape(const prepared_data& p) {
+  const auto r = standardized_residuals(p);
+  return {r.size(), sample_skewness(r), sample_excess_kurtosis(r)};
+}
+
 }  // namespace contrasta

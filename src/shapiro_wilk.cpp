@@ -66,6 +66,33 @@ std::vector<double> coefficients(std::size_t n) {
   return a;
 }
 
+// p-value from 1 - W: exact for n = 3, otherwise Royston's normalising transformation of
+// log(1 - W) (AS R94; for n <= 11 through -log(gamma - log(1 - W))).
+double p_value_of(double one_minus_w, std::size_t n) {
+  const double nd = static_cast<double>(n);
+  if (n == 3) {
+    // Exact for n = 3: p = (6/pi) (asin(sqrt(W)) - asin(sqrt(3/4))).
+    constexpr double pi = 3.14159265358979323846;
+    return std::max(0.0, 6 / pi * (std::asin(std::sqrt(1 - one_minus_w)) - pi / 3));
+  }
+  if (!(one_minus_w > 0)) return 1.0;
+  double y = std::log(one_minus_w);
+  double mu, sigma;
+  if (n <= 11) {
+    const double gamma = polynomial(g, nd);
+    // Beyond the range of the transformation: W is so small that p is negligible.
+    if (y >= gamma) return 1e-99;
+    y = -std::log(gamma - y);
+    mu = polynomial(c3, nd);
+    sigma = std::exp(polynomial(c4, nd));
+  } else {
+    const double log_n = std::log(nd);
+    mu = polynomial(c5, log_n);
+    sigma = std::exp(polynomial(c6, log_n));
+  }
+  return boost::math::cdf(boost::math::complement(detail::normal(mu, sigma), y));
+}
+
 }  // namespace
 
 shapiro_wilk_result shapiro_wilk(std::span<const double> sample) {
@@ -105,31 +132,14 @@ shapiro_wilk_result shapiro_wilk(std::span<const double> sample) {
   const double root = std::sqrt(ssa * ssx);
   const double one_minus_w = (root - sax) * (root + sax) / (ssa * ssx);
   out.w = 1 - one_minus_w;
-  if (n == 3) {
-    // Exact for n = 3: p = (6/pi) (asin(sqrt(W)) - asin(sqrt(3/4))).
-    constexpr double pi = 3.14159265358979323846;
-    out.p_value = std::max(0.0, 6 / pi * (std::asin(std::sqrt(out.w)) - pi / 3));
-    return out;
-  }
-  double y = std::log(one_minus_w);
-  double mu, sigma;
-  if (n <= 11) {
-    const double gamma = polynomial(g, nd);
-    if (y >= gamma) {
-      // Beyond the range of the transformation: W is so small that p is negligible.
-      out.p_value = 1e-99;
-      return out;
-    }
-    y = -std::log(gamma - y);
-    mu = polynomial(c3, nd);
-    sigma = std::exp(polynomial(c4, nd));
-  } else {
-    const double log_n = std::log(nd);
-    mu = polynomial(c5, log_n);
-    sigma = std::exp(polynomial(c6, log_n));
-  }
-  out.p_value = boost::math::cdf(boost::math::complement(detail::normal(mu, sigma), y));
+  out.p_value = p_value_of(one_minus_w, n);
   return out;
 }
+
+double shapiro_wilk_p_value(double w, std::size_t n) {
+  if (n < 3 || n > 5000 || !(w > 0 && w <= 1)) return not_available;
+  return p_value_of(1 - w, n);
+}
+
 
 }  // namespace contrasta

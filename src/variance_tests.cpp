@@ -73,11 +73,19 @@ variance_test levene_test(const sample_list& groups, levene_centre centre, doubl
   }
   variance_test out = anova_f_of(deviations);
   switch (centre) {
-    case levene_centre::mean: out.test = "levene-mean"; break;
-    case levene_centre::median: out.test = "levene-median"; break;
-    case levene_centre::trimmed: out.test = "levene-trimmed"; break;
+    case levene_centre::mean:
+      out.test = "levene-mean";
+      out.null_hypothesis = "the mean absolute deviation from the level mean is the same in every level";
+      break;
+    case levene_centre::median:
+      out.test = "levene-median";
+      out.null_hypothesis = "the mean absolute deviation from the level median is the same in every level";
+      break;
+    case levene_centre::trimmed:
+      out.test = "levene-trimmed";
+      out.null_hypothesis = "the mean absolute deviation from the level's trimmed mean is the same in every level";
+      break;
   }
-  out.null_hypothesis = "the mean absolute deviation from the group centre is the same in every group";
   return out;
 }
 

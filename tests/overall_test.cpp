@@ -15,7 +15,11 @@ namespace {
 
 prepared_data prepared_of(const std::vector<std::vector<double>>& groups) {
   std::vector<std::string> levels;
-  for (std::size_t i = 0; i < groups.size(); ++i) levels.push_back("g" + std::to_string(i));
+  for (std::size_t i = 0; i < groups.size(); ++i) {
+    std::string name = "g";  // appended, not "g" + to_string: GCC 12 warns falsely (-Wrestrict) on that
+    name += std::to_string(i);
+    levels.push_back(name);
+  }
   return prepare(make_dataset(levels, groups));
 }
 

@@ -55,6 +55,9 @@ struct shapiro_wilk_result {
 // non-zero range; NaN fields otherwise.
 shapiro_wilk_result shapiro_wilk(std::span<const double> x);
 
+// Royston's p-value for a given W and n (the second half of AS R94); 3 <= n <= 5000.
+double shapiro_wilk_p_value(double w, std::size_t n);
+
 struct normality_test {
   std::optional<std::size_t> level;  // absent: the pooled within-group residuals
   std::string test = "shapiro-wilk";
@@ -81,6 +84,18 @@ struct group_shape {
 };
 
 std::vector<group_shape> describe_shapes(const prepared_data& p);
+
+// Residuals standardized within their level, (y - ybar_i)/s_i over levels with n >= 2 and
+// s_i > 0, pooled: the common shape of the errors once locations and scales are removed.
+std::vector<double> standardized_residuals(const prepared_data& p);
+
+struct residual_shape {
+  std::size_t n = 0;
+  double skewness = not_available;         // G1 of the standardized residuals
+  double excess_kurtosis = not_available;  // G2 of the standardized residuals
+};
+
+residual_shape describe_residual_shape(const prepared_data& p);
 
 // Modified z-score 0.6745 (y - median)/MAD with MAD the median absolute deviation from the
 // median (Iglewicz & Hoaglin 1993, How to Detect and Handle Outliers). NaN when MAD is zero.
@@ -135,6 +150,7 @@ struct diagnostics_report {
   std::vector<variance_test> variance;
   std::vector<normality_test> normality;
   std::vector<group_shape> shapes;
+  residual_shape residuals;
   std::vector<outlier> outliers;
   ties_summary ties;
   spread_balance spread;

@@ -94,6 +94,8 @@ void write_recommendation_json(json_writer& json, const recommendation& r) {
   json.field("method", r.method).field("interval_method", r.interval_method);
   json.key("reasons").strings(r.reasons);
   json.key("alternatives").strings(r.alternatives);
+  json.key("rules").strings(r.rules);
+  json.key("notes").strings(r.notes);
   json.end_object();
 }
 
@@ -246,6 +248,7 @@ void write_recommendation_table(std::ostream& out, const recommendation& r) {
     for (std::size_t i = 0; i < r.alternatives.size(); ++i) out << (i ? ", " : " ") << r.alternatives[i];
     out << '\n';
   }
+  for (const auto& note : r.notes) out << "  note: " << note << '\n';
 }
 
 void write_comparison_table(std::ostream& out, const comparison& c) {
