@@ -90,6 +90,10 @@ calibration_report calibrate(const prepared_data& p, const calibration_request& 
   report.effect = request.effect;
 
   const design des = design_of(p);
+  constexpr std::size_t max_levels_for_pairs = 100;
+  if (request.contrasts.empty() && p.data.level_count() > max_levels_for_pairs)
+    throw analysis_error("calibration over all pairs of " + std::to_string(p.data.level_count()) +
+                         " levels is too large; name the contrasts to calibrate with -c or --family");
   const std::vector<contrast> contrasts = request.contrasts.empty() ? all_pairs(p.data.levels) : request.contrasts;
 
   analysis_options sim = o;

@@ -107,11 +107,11 @@ facts gather(const diagnostics_report& d) {
     f.heavy_tailed = f.residual_kurtosis >= kurtosis_limit;
   }
   for (const auto& o : d.outliers) {
-    for (const auto& s : d.shapes)
-      if (s.level == o.level && s.excess_kurtosis >= outlier_level_kurtosis) {
-        f.confirmed_outliers.push_back(o);
-        f.confirmed_kurtosis.push_back(s.excess_kurtosis);
-      }
+    // describe_shapes lists the levels in order, so shapes[level] is the outlier's level.
+    if (o.level < d.shapes.size() && d.shapes[o.level].excess_kurtosis >= outlier_level_kurtosis) {
+      f.confirmed_outliers.push_back(o);
+      f.confirmed_kurtosis.push_back(d.shapes[o.level].excess_kurtosis);
+    }
   }
   for (const auto& v : d.variance)
     if (v.test == "levene-median") f.levene_median_p = v.p_value;
@@ -139,7 +139,7 @@ bool clearly_liberal(const calibration_row& r) { return r.type1_error - 2.576 * 
 
 std::string calibration_text(const calibration_row& r) {
   return r.method + " rejected " + percent(r.type1_error) + " (Monte Carlo SE " + percent(r.type1_se, 2) + ") of " +
-         std::to_string(r.datasets) + " simulated equal-means datasets (" + r.model + " errors) at alpha " +
+         std::to_string(r.datasets) + " simulated equal-means datasets (" + (r.model == "normal" ? std::string("normal errors") : std::string("resampled residuals")) + ") at alpha " +
          number(r.alpha);
 }
 
@@ -200,8 +200,8 @@ void apply_calibration(recommendation& rec, const calibration_report& c, const s
   }
   for (const auto* r : rows_of(rec.method))
     if (r->power)
-      rec.reasons.push_back("simulated power of " + rec.method + " for " + r->power_contrast + " (" + r->model +
-                            " errors): " + percent(*r->power) + " (Monte Carlo SE " + percent(*r->power_se, 2) + ")");
+      rec.reasons.push_back("simulated power of " + rec.method + " for " + r->power_contrast + " (" +
+                            (r->model == "normal" ? std::string("normal errors") : std::string("resampled residuals")) + "): " + percent(*r->power) + " (Monte Carlo SE " + percent(*r->power_se, 2) + ")");
 }
 
 }  // namespace
@@ -229,7 +229,7 @@ recommendation recommend(const prepared_data& p, const diagnostics_report& d, co
     rec.method = rec.interval_method = "pooled";
     rec.reasons.push_back("level " + quoted(p, f.smallest_level) + " has n = " + std::to_string(f.smallest_n) +
                           ": it has no variance of its own, so only the pooled variance can serve; pooled assumes "
-                          "equal variances (read the spread figures below)");
+                          "equal variances in all " + std::to_string(k) + " levels");
     rec.alternatives = {"permutation"};
   } else if (f.smallest_n < tiny_group) {
     rec.rules.push_back("R1 tiny groups");
@@ -301,16 +301,20 @@ recommendation recommend(const prepared_data& p, const diagnostics_report& d, co
                                 number(p.groups[s.smallest_sd_level].sd) + " in " + quoted(p, s.smallest_sd_level) + ", n = " +
                                 std::to_string(p.groups[s.smallest_sd_level].n) + ")";
     const bool unequal = s.sd_ratio > sd_ratio_limit || s.pooled_se_ratio < pooled_se_limit;
-    if (unequal && s.pooled_se_ratio < 1 && s.larger_variances_in_smaller_groups) {
+    if (unequal) {
       rec.rules.push_back("S1 unequal variances");
-      rec.reasons.push_back(sd_text + " with the larger variances in the smaller groups: pooled t rejects too often "
-                            "(Box 1954); for " + quoted(p, s.pooled_se_pair_first) + " vs " + quoted(p, s.pooled_se_pair_second) +
-                            " the pooled standard error is " + number(s.pooled_se_ratio, 2) +
-                            " times the separate-variance one");
-    } else if (unequal) {
-      rec.rules.push_back("S1 unequal variances");
-      rec.reasons.push_back(sd_text + ": variances differ; pooled t is unreliable here (conservative where the larger "
-                            "variances sit in the larger groups, liberal where they sit in the smaller; Box 1954)");
+      std::string text = sd_text;
+      if (s.larger_variances_in_smaller_groups && s.pooled_se_ratio < 1)
+        text += " with the larger variances in the smaller groups: pooled t rejects too often (Box 1954)";
+      else
+        text += ": the variances differ";
+      if (s.pooled_se_ratio < 1)
+        text += "; for " + quoted(p, s.pooled_se_pair_first) + " vs " + quoted(p, s.pooled_se_pair_second) +
+                " the pooled standard error is " + fixed(s.pooled_se_ratio, 2) +
+                " times the separate-variance one, so pooled t overstates that difference";
+      else
+        text += "; pooled t is conservative here, losing power (Box 1954)";
+      rec.reasons.push_back(text);
     } else if (s.sd_ratio <= balanced_limit && s.n_ratio <= balanced_limit) {
       rec.rules.push_back("S2 balanced and homogeneous");
       rec.reasons.push_back(sd_text + " and n ratio " + fixed(s.n_ratio, 1) +

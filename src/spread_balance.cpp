@@ -1,5 +1,6 @@
 // The balance of spreads and group sizes, and how they pair: the facts behind the choice
 // between pooled and separate-variance methods (Box 1954, Ann. Math. Stat. 25:290-302).
+#include <algorithm>
 #include <cmath>
 #include <limits>
 
@@ -66,19 +67,32 @@ spread_balance describe_spread(const prepared_data& p) {
     out.larger_variances_in_smaller_groups = out.size_variance_correlation < 0;
   }
 
-  // Pooled against separate-variance standard errors for each pair of levels.
+  // Pooled against separate-variance standard errors for each pair of levels. With many levels,
+  // every level is paired only with the 64 levels of largest s_i^2/n_i (the separate-variance
+  // terms that make the ratio small), so the search stays O(64 k).
   const double mse = p.anova.ms_within;
-  for (std::size_t i = 0; i < groups.size(); ++i) {
-    for (std::size_t j = i + 1; j < groups.size(); ++j) {
-      if (groups[i].n < 2 || groups[j].n < 2) continue;
+  std::vector<std::size_t> usable;
+  for (std::size_t i = 0; i < groups.size(); ++i)
+    if (groups[i].n >= 2 && std::isfinite(groups[i].variance)) usable.push_back(i);
+  auto mean_variance = [&](std::size_t i) { return groups[i].variance / static_cast<double>(groups[i].n); };
+  std::vector<std::size_t> partners = usable;
+  constexpr std::size_t all_pairs_limit = 200, partner_count = 64;
+  if (usable.size() > all_pairs_limit) {
+    std::partial_sort(partners.begin(), partners.begin() + partner_count, partners.end(),
+                      [&](std::size_t a, std::size_t b) { return mean_variance(a) > mean_variance(b); });
+    partners.resize(partner_count);
+  }
+  for (std::size_t i : partners) {
+    for (std::size_t j : usable) {
+      if (i == j || (usable.size() <= all_pairs_limit && j < i)) continue;
       const double ni = static_cast<double>(groups[i].n), nj = static_cast<double>(groups[j].n);
-      const double separate = groups[i].variance / ni + groups[j].variance / nj;
+      const double separate = mean_variance(i) + mean_variance(j);
       if (!(separate > 0)) continue;
       const double ratio = std::sqrt(mse * (1 / ni + 1 / nj) / separate);
       if (std::isnan(out.pooled_se_ratio) || ratio < out.pooled_se_ratio) {
         out.pooled_se_ratio = ratio;
-        out.pooled_se_pair_first = i;
-        out.pooled_se_pair_second = j;
+        out.pooled_se_pair_first = std::min(i, j);
+        out.pooled_se_pair_second = std::max(i, j);
       }
     }
   }

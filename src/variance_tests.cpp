@@ -48,7 +48,8 @@ variance_test anova_f_of(const std::vector<std::vector<double>>& samples) {
   }
   out.df1 = k - 1;
   out.df2 = N - k;
-  out.statistic = (between / out.df1) / (within / *out.df2);
+  // With no spread within the levels the F ratio is undefined (or infinite): reported as NaN.
+  out.statistic = within > 0 ? (between / out.df1) / (within / *out.df2) : not_available;
   out.p_value = f_upper_tail(out.statistic, out.df1, *out.df2);
   return out;
 }
@@ -115,7 +116,7 @@ variance_test bartlett_test(const sample_list& groups) {
 variance_test fligner_test(const sample_list& groups) {
   variance_test out;
   out.test = "fligner";
-  out.null_hypothesis = "the spreads about the group medians are the same in every group";
+  out.null_hypothesis = "the spreads about the level medians are the same in every level";
   std::vector<std::vector<double>> deviations;
   for (auto g : groups) {
     const double m = g.empty() ? 0.0 : median_of(g);
