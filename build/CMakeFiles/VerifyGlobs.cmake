@@ -60,6 +60,7 @@ endif()
 # CONTRASTA_CLI_SCRIPTS at tests/CMakeLists.txt:46 (file)
 file(GLOB NEW_GLOB LIST_DIRECTORIES true "/work/main/tests/cli/*.sh")
 set(OLD_GLOB
+  "/work/main/tests/cli/bad_inputs.sh"
   )
 if(NOT "${NEW_GLOB}" STREQUAL "${OLD_GLOB}")
   message("-- GLOB mismatch!")
