@@ -8,6 +8,7 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <map>
 #include <string>
 
 #include "contrasta/error.hpp"
@@ -60,9 +61,10 @@ std::string percent(double share, int decimals = 1) {
 
 std::string quoted(const prepared_data& p, std::size_t level) { return "'" + p.data.levels[level] + "'"; }
 
-// Whether this build can run a method (methods not yet in the build throw analysis_error).
-bool method_available(const std::string& method) {
-  static const prepared_data probe = prepare(make_dataset({"a", "b"}, {{1, 2, 3, 4.5}, {2, 3.5, 5, 7, 8}}));
+// Whether this build can run a method (methods not yet in the build throw analysis_error). Probed
+// once per process on a small fixed dataset; the answer cannot change while the program runs.
+bool probe_method(const std::string& method) {
+  const prepared_data probe = prepare(make_dataset({"a", "b"}, {{1, 2, 3, 4.5}, {2, 3.5, 5, 7, 8}}));
   contrast c;
   c.name = "b - a";
   c.expression = "b - a";
@@ -76,6 +78,16 @@ bool method_available(const std::string& method) {
   } catch (const analysis_error&) {
     return false;
   }
+}
+
+bool method_available(const std::string& method) {
+  static const std::map<std::string, bool> available = [] {
+    std::map<std::string, bool> m;
+    for (const auto& name : method_names()) m[name] = probe_method(name);
+    return m;
+  }();
+  const auto it = available.find(method);
+  return it != available.end() && it->second;
 }
 
 struct facts {
@@ -264,12 +276,13 @@ recommendation recommend(const prepared_data& p, const diagnostics_report& d, co
       for (std::size_t i = 1; i < f.confirmed_outliers.size(); ++i)
         if (std::abs(f.confirmed_outliers[i].robust_z) > std::abs(f.confirmed_outliers[worst].robust_z)) worst = i;
       const auto& flagged = f.confirmed_outliers[worst];
-      rec.reasons.push_back(std::to_string(f.confirmed_outliers.size()) + " outlier" +
-                            (f.confirmed_outliers.size() == 1 ? "" : "s") +
+      const std::size_t count = f.confirmed_outliers.size();
+      rec.reasons.push_back((count == 1 ? std::string("an outlier") : std::to_string(count) + " outliers") +
                             " by the modified z-score rule (|z| > 3.5; Iglewicz & Hoaglin 1993) in a level with heavy "
-                            "tails; the most extreme " + number(flagged.value, 6) + " in level " + quoted(p, flagged.level) +
-                            " (row " + std::to_string(flagged.row) + ", z = " + fixed(flagged.robust_z, 1) +
-                            "; excess kurtosis of that level " + fixed(f.confirmed_kurtosis[worst], 1) + ")");
+                            "tails" + (count == 1 ? ": " : "; the most extreme ") + number(flagged.value, 6) + " in level " +
+                            quoted(p, flagged.level) + " (row " + std::to_string(flagged.row) + ", z = " +
+                            fixed(flagged.robust_z, 1) + "; excess kurtosis of that level " +
+                            fixed(f.confirmed_kurtosis[worst], 1) + ")");
     }
     if (f.skewed)
       rec.reasons.push_back("skewness of the standardized residuals " + fixed(f.residual_skewness) + " (N = " +
