@@ -107,6 +107,11 @@ calibration_report calibrate(const prepared_data& p, const calibration_request& 
   std::vector<method_plan> plans;
   const auto& names = request.methods.empty() ? method_names() : request.methods;
   for (const auto& name : names) {
+    if (std::find(method_names().begin(), method_names().end(), name) == method_names().end()) {
+      std::string known;
+      for (const auto& m : method_names()) known += (known.empty() ? "" : ", ") + m;
+      throw usage_error("calibration method '" + name + "' is not known; use a comma list of " + known);
+    }
     method_plan plan{name, {}};
     for (std::size_t c = 0; c < contrasts.size(); ++c)
       if (method_applies(name, contrasts[c])) plan.contrasts.push_back(c);

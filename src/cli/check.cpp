@@ -514,7 +514,8 @@ void add_check_command(CLI::App& app) {
       "  contrasta check trial.csv --group substrate --response fresh_mass_g --calibrate --effect 5 --format json\n\n"
       "The advice weighs the SD ratio and where the larger SDs sit, group sizes, shape, outliers and ties;\n"
       "the tests of equal spread are shown but never decide alone. --calibrate simulates datasets with the\n"
-      "observed group sizes and SDs and equal means and reports how often each method rejects at --alpha.");
+      "observed group sizes and SDs and equal means and reports how often each method rejects at --alpha;\n"
+      "-c, --coefficients, --contrast-file and --family choose the contrasts it simulates (default: all pairs).");
   add_data_options(cmd, settings->data);
   add_contrast_options(cmd, settings->contrasts);
   cmd->add_option("--trim", settings->trim, "proportion trimmed from each end for trimmed means (default 0.2)");

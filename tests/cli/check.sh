@@ -100,6 +100,8 @@ expect_text "$tmp/out" "(advised)" "compare advised method"
 # Errors: one line beginning error:, with the interface's exit statuses.
 expect_status 2 "--effect without --calibrate" "$bin" check "${substrate[@]}" --effect 3
 expect_text "$tmp/err" "^error:" "usage error line"
+expect_status 2 "unknown calibration method" "$bin" check "${substrate[@]}" --calibrate --calibrate-methods welch,bogus --datasets 20
+expect_text "$tmp/err" "^error: calibration method 'bogus' is not known" "unknown calibration method message"
 expect_status 3 "missing file" "$bin" check "$tmp/no-such-file.csv"
 printf 'g,y\na,1\na,2\na,3\n' >"$tmp/one_level.csv"
 expect_status 4 "one level" "$bin" check "$tmp/one_level.csv"
