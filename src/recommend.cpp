@@ -19,8 +19,9 @@ namespace {
 
 // Thresholds of the rules (docs/diagnostics.md, "The rule set").
 constexpr std::size_t tiny_group = 5;              // R1: smallest n below this
-constexpr double discrete_tied_share = 0.5;        // R2: share of tied observations
-constexpr double discrete_scale_tied_share = 0.3;  // R2: on a small whole-number scale
+constexpr double discrete_tied_share = 0.8;        // R2: share of tied observations, any scale
+constexpr double discrete_scale_tied_share = 0.3;  // R2: with few distinct values
+constexpr std::size_t discrete_distinct = 21;      // R2: "few": a 0-20 scale or shorter
 constexpr std::size_t shape_min_n = 8;             // R3: residual shape read from N >= 8
 constexpr double skew_limit = 1.0;                 // R3: residual |G1| >= 1, "highly skewed"
 constexpr double kurtosis_limit = 3.0;             // R3: residual excess kurtosis >= 3
@@ -109,8 +110,10 @@ facts gather(const diagnostics_report& d) {
   facts f;
   f.smallest_n = d.spread.smallest_n;
   f.smallest_level = d.spread.smallest_n_level;
+  // Few distinct values (a rating scale, small counts) with many ties, or ties nearly everywhere.
+  // Finely rounded measurements have many distinct values and stay with the means.
   f.discrete = d.ties.tied_share >= discrete_tied_share ||
-               (d.ties.small_integer_scale && d.ties.tied_share >= discrete_scale_tied_share);
+               (d.ties.distinct_values <= discrete_distinct && d.ties.tied_share >= discrete_scale_tied_share);
   f.residual_n = d.residuals.n;
   f.residual_skewness = d.residuals.skewness;
   f.residual_kurtosis = d.residuals.excess_kurtosis;

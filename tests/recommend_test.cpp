@@ -121,6 +121,25 @@ TEST_CASE("a 0-10 panel scale with ties: the rank method") {
   check_reasons_have_numbers(r);
 }
 
+TEST_CASE("finely rounded measurements keep the means even with many ties") {
+  // Three levels of 60 values rounded to 0.1 g: many ties, but dozens of distinct values, so the
+  // discrete-scale rule R2 stays silent (its thresholds: <= 21 distinct values, or >= 80% tied).
+  std::vector<std::vector<double>> groups;
+  for (double mean : {50.0, 50.5, 51.0}) {
+    auto g = normal_scores(60, mean, 2);
+    for (double& v : g) v = std::round(v * 10) / 10;
+    groups.push_back(g);
+  }
+  const auto p = prepared_of(groups);
+  const auto d = diagnose(p);
+  INFO("distinct " << d.ties.distinct_values << ", tied share " << d.ties.tied_share);
+  CHECK(d.ties.distinct_values > 21);
+  CHECK(d.ties.tied_share > 0.3);
+  const auto r = recommend(p, d, nullptr, analysis_options{});
+  CHECK(!fired(r, "R2 ties and discrete scale"));
+  CHECK(r.method == "welch");
+}
+
 TEST_CASE("one tiny group: permutation") {
   const auto p = prepared_of({normal_scores(3, 10, 1), normal_scores(20, 10, 1), normal_scores(20, 12, 1)});
   const auto r = recommend(p, analysis_options{});
