@@ -5294,6 +5294,12 @@ CMakeFiles/contrasta.dir/src/read.cpp.o: /work/main/src/read.cpp \
   /usr/include/c++/12/cstddef \
   /usr/include/c++/12/span \
   /usr/include/c++/12/array \
+  /usr/include/x86_64-linux-gnu/sys/mman.h \
+  /usr/include/x86_64-linux-gnu/bits/mman.h \
+  /usr/include/x86_64-linux-gnu/bits/mman-map-flags-generic.h \
+  /usr/include/x86_64-linux-gnu/bits/mman-linux.h \
+  /usr/include/x86_64-linux-gnu/bits/mman-shared.h \
+  /usr/include/x86_64-linux-gnu/bits/mman_ext.h \
   /usr/include/c++/12/algorithm \
   /usr/include/c++/12/bits/stl_algo.h \
   /usr/include/c++/12/bits/algorithmfwd.h \
@@ -5827,6 +5833,14 @@ CMakeFiles/contrasta.dir/src/summary.cpp.o: /work/main/src/summary.cpp \
 
 /usr/include/c++/12/bits/stl_raw_storage_iter.h:
 
+/usr/include/x86_64-linux-gnu/bits/mman_ext.h:
+
+/usr/include/x86_64-linux-gnu/bits/mman-linux.h:
+
+/usr/include/x86_64-linux-gnu/bits/mman.h:
+
+/usr/include/x86_64-linux-gnu/sys/mman.h:
+
 /work/main/src/prepared.cpp:
 
 /work/main/src/overall.cpp:
@@ -5968,6 +5982,8 @@ CMakeFiles/contrasta.dir/src/summary.cpp.o: /work/main/src/summary.cpp \
 /usr/include/boost/predef/os/bsd/bsdi.h:
 
 /usr/include/boost/predef/os/bsd.h:
+
+/usr/include/x86_64-linux-gnu/bits/mman-shared.h:
 
 /usr/include/boost/predef/other/endian.h:
 
@@ -7234,6 +7250,8 @@ CMakeFiles/contrasta.dir/src/summary.cpp.o: /work/main/src/summary.cpp \
 /usr/include/c++/12/bits/charconv.h:
 
 /usr/include/boost/mpl/aux_/config/preprocessor.hpp:
+
+/usr/include/x86_64-linux-gnu/bits/mman-map-flags-generic.h:
 
 /usr/include/boost/static_assert.hpp:
 
