@@ -16,5 +16,7 @@ add_test([=[classical_live]=] "/usr/bin/cmake" "-DSCRIPT=/work/main/tests/refere
 set_tests_properties([=[classical_live]=] PROPERTIES  LABELS "live" TIMEOUT "600" _BACKTRACE_TRIPLES "/work/main/tests/CMakeLists.txt;34;add_test;/work/main/tests/CMakeLists.txt;0;")
 add_test([=[cli_bad_inputs]=] "bash" "/work/main/tests/cli/bad_inputs.sh" "/work/main/build/contrasta" "/work/main/tests")
 set_tests_properties([=[cli_bad_inputs]=] PROPERTIES  LABELS "cli" TIMEOUT "600" _BACKTRACE_TRIPLES "/work/main/tests/CMakeLists.txt;49;add_test;/work/main/tests/CMakeLists.txt;0;")
+add_test([=[cli_batch]=] "bash" "/work/main/tests/cli/batch.sh" "/work/main/build/contrasta" "/work/main/tests")
+set_tests_properties([=[cli_batch]=] PROPERTIES  LABELS "cli" TIMEOUT "600" _BACKTRACE_TRIPLES "/work/main/tests/CMakeLists.txt;49;add_test;/work/main/tests/CMakeLists.txt;0;")
 add_test([=[cli_formats]=] "bash" "/work/main/tests/cli/formats.sh" "/work/main/build/contrasta" "/work/main/tests")
 set_tests_properties([=[cli_formats]=] PROPERTIES  LABELS "cli" TIMEOUT "600" _BACKTRACE_TRIPLES "/work/main/tests/CMakeLists.txt;49;add_test;/work/main/tests/CMakeLists.txt;0;")
