@@ -76,6 +76,7 @@ set(OLD_GLOB
   "/work/main/tests/cli/bad_inputs.sh"
   "/work/main/tests/cli/batch.sh"
   "/work/main/tests/cli/formats.sh"
+  "/work/main/tests/cli/install.sh"
   )
 if(NOT "${NEW_GLOB}" STREQUAL "${OLD_GLOB}")
   message("-- GLOB mismatch!")

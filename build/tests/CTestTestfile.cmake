@@ -20,3 +20,5 @@ add_test([=[cli_batch]=] "bash" "/work/main/tests/cli/batch.sh" "/work/main/buil
 set_tests_properties([=[cli_batch]=] PROPERTIES  LABELS "cli" TIMEOUT "600" _BACKTRACE_TRIPLES "/work/main/tests/CMakeLists.txt;49;add_test;/work/main/tests/CMakeLists.txt;0;")
 add_test([=[cli_formats]=] "bash" "/work/main/tests/cli/formats.sh" "/work/main/build/contrasta" "/work/main/tests")
 set_tests_properties([=[cli_formats]=] PROPERTIES  LABELS "cli" TIMEOUT "600" _BACKTRACE_TRIPLES "/work/main/tests/CMakeLists.txt;49;add_test;/work/main/tests/CMakeLists.txt;0;")
+add_test([=[cli_install]=] "bash" "/work/main/tests/cli/install.sh" "/work/main/build/contrasta" "/work/main/tests")
+set_tests_properties([=[cli_install]=] PROPERTIES  LABELS "cli" TIMEOUT "600" _BACKTRACE_TRIPLES "/work/main/tests/CMakeLists.txt;49;add_test;/work/main/tests/CMakeLists.txt;0;")
