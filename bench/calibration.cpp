@@ -13,7 +13,8 @@ using namespace contrasta;
 
 namespace {
 
-double seconds_of(const calibration_request& request, const prepared_data& p, unsigned threads, calibration_report& out) {
+double seconds_of(const calibration_request& request, const prepared_data& p, unsigned threads,
+                  calibration_report& out) {
   analysis_options o;
   o.seed = 20261201;
   o.threads = threads;
@@ -24,7 +25,8 @@ double seconds_of(const calibration_request& request, const prepared_data& p, un
 
 std::vector<double> sample(std::size_t n, double mean, double sd, unsigned salt) {
   std::vector<double> x;
-  for (std::size_t i = 0; i < n; ++i) x.push_back(mean + sd * (static_cast<double>((i * 7919 + salt) % 101) / 50.0 - 1.0));
+  for (std::size_t i = 0; i < n; ++i)
+    x.push_back(mean + sd * (static_cast<double>((i * 7919 + salt) % 101) / 50.0 - 1.0));
   return x;
 }
 
@@ -33,8 +35,8 @@ std::vector<double> sample(std::size_t n, double mean, double sd, unsigned salt)
 int main() {
   // The design (n = 5, 20; SDs 4, 1) and a four-level unbalanced design like the demo trial.
   const auto two = prepare(make_dataset({"small", "large"}, {sample(5, 0, 4, 1), sample(20, 0, 1, 2)}));
-  const auto four = prepare(make_dataset({"a", "b", "c", "d"},
-                                         {sample(12, 47, 3, 3), sample(8, 52, 4.5, 4), sample(6, 41, 9, 5), sample(10, 49, 3.5, 6)}));
+  const auto four = prepare(make_dataset({"a", "b", "c", "d"}, {sample(12, 47, 3, 3), sample(8, 52, 4.5, 4),
+                                                                sample(6, 41, 9, 5), sample(10, 49, 3.5, 6)}));
   struct workload {
     const char* name;
     const prepared_data* p;
@@ -59,9 +61,10 @@ int main() {
     std::size_t methods = 0;
     for (const auto& r : one.rows) methods += r.model == "normal";
     const double simulated = static_cast<double>(w.datasets) * static_cast<double>(request.models.size());
-    std::printf("%s: %zu methods, %.0f datasets: 1 thread %.3f s (%.0f datasets/s), 2 threads %.3f s (speed-up %.2f), "
-                "identical across threads: %s\n",
-                w.name, methods, simulated, t1, simulated / t1, t2, t1 / t2, same ? "yes" : "NO");
+    std::printf(
+        "%s: %zu methods, %.0f datasets: 1 thread %.3f s (%.0f datasets/s), 2 threads %.3f s (speed-up %.2f), "
+        "identical across threads: %s\n",
+        w.name, methods, simulated, t1, simulated / t1, t2, t1 / t2, same ? "yes" : "NO");
     for (const auto& s : one.skipped) std::printf("    skipped %s\n", s.c_str());
   }
 }

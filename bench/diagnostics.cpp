@@ -1,11 +1,12 @@
 // Cost of the diagnostics, overall tests and recommendation per response: `compare` runs the
 // recommendation for every response of a batch, so this bounds its share of batch workloads
 // (quality.md P6: 10,000 responses x 200 rows x 4 groups).
+#include "contrasta/diagnostics.hpp"
+
 #include <chrono>
 #include <cstdio>
 #include <vector>
 
-#include "contrasta/diagnostics.hpp"
 #include "contrasta/overall.hpp"
 #include "contrasta/recommend.hpp"
 
@@ -19,7 +20,9 @@ int main() {
     return static_cast<double>(state >> 11) * 0x1.0p-53;
   };
   for (std::size_t g = 0; g < 4; ++g)
-    for (int i = 0; i < 50; ++i) groups[g].push_back(10 + static_cast<double>(g) + (next() + next() + next() - 1.5) * (1 + static_cast<double>(g)));
+    for (int i = 0; i < 50; ++i)
+      groups[g].push_back(10 + static_cast<double>(g) +
+                          (next() + next() + next() - 1.5) * (1 + static_cast<double>(g)));
   const auto p = prepare(make_dataset({"a", "b", "c", "d"}, groups));
   const analysis_options o;
   (void)recommend(p, o);  // first call probes the methods of the build once
@@ -27,7 +30,8 @@ int main() {
   auto time = [&](const char* what, auto&& f) {
     const auto start = std::chrono::steady_clock::now();
     for (int i = 0; i < repeats; ++i) f();
-    const double us = std::chrono::duration<double, std::micro>(std::chrono::steady_clock::now() - start).count() / repeats;
+    const double us =
+        std::chrono::duration<double, std::micro>(std::chrono::steady_clock::now() - start).count() / repeats;
     std::printf("%-40s %8.1f microseconds per response (200 rows, 4 levels)\n", what, us);
   };
   time("overall_tests", [&] { (void)overall_tests(p); });

@@ -4,12 +4,12 @@
 // error of the method on this design.
 #include "contrasta/calibrate.hpp"
 
-#include <algorithm>
-#include <cmath>
-
 #include <tbb/blocked_range.h>
 #include <tbb/parallel_for.h>
 #include <tbb/task_arena.h>
+
+#include <algorithm>
+#include <cmath>
 
 #include "calibrate_random.hpp"
 #include "contrasta/error.hpp"
@@ -70,11 +70,15 @@ design design_of(const prepared_data& p) {
   return d;
 }
 
-bool rejects(const method_result& r, double alpha) { return r.p_value <= alpha; }
+bool rejects(const method_result& r, double alpha) {
+  return r.p_value <= alpha;
+}
 
 }  // namespace
 
-std::string to_string(error_model m) { return m == error_model::normal ? "normal" : "residuals"; }
+std::string to_string(error_model m) {
+  return m == error_model::normal ? "normal" : "residuals";
+}
 
 bool within_bradley_band(double type1_error, double alpha) {
   return type1_error >= 0.5 * alpha && type1_error <= 1.5 * alpha;
@@ -139,7 +143,8 @@ calibration_report calibrate(const prepared_data& p, const calibration_request& 
       grand += g.centred_mean;
     }
     grand /= static_cast<double>(p.groups.size());
-    if (!(high > low)) throw analysis_error("--effect keeps the observed pattern of means, but the observed means are all equal");
+    if (!(high > low))
+      throw analysis_error("--effect keeps the observed pattern of means, but the observed means are all equal");
     for (std::size_t i = 0; i < p.groups.size(); ++i)
       effect_means[i] = (p.groups[i].centred_mean - grand) * *request.effect / (high - low);
     double largest = -1;
@@ -172,9 +177,10 @@ calibration_report calibrate(const prepared_data& p, const calibration_request& 
         for (std::size_t i = 0; i < des.n.size(); ++i) {
           groups[i].resize(des.n[i]);
           for (auto& y : groups[i]) {
-            const double e = model == error_model::normal
-                                 ? normal(rng)
-                                 : des.residual_pool[rnd::bounded(rng, static_cast<std::uint32_t>(des.residual_pool.size()))];
+            const double e =
+                model == error_model::normal
+                    ? normal(rng)
+                    : des.residual_pool[rnd::bounded(rng, static_cast<std::uint32_t>(des.residual_pool.size()))];
             y = means[i] + des.sd[i] * e;
           }
         }
@@ -205,9 +211,10 @@ calibration_report calibrate(const prepared_data& p, const calibration_request& 
     for (std::size_t start = 0; start < blocks; start += chunk) {
       const std::size_t stop = std::min(blocks, start + chunk);
       arena.execute([&] {
-        tbb::parallel_for(tbb::blocked_range<std::size_t>(start, stop, 1), [&](const tbb::blocked_range<std::size_t>& r) {
-          for (std::size_t b = r.begin(); b != r.end(); ++b) run_block(b);
-        });
+        tbb::parallel_for(tbb::blocked_range<std::size_t>(start, stop, 1),
+                          [&](const tbb::blocked_range<std::size_t>& r) {
+                            for (std::size_t b = r.begin(); b != r.end(); ++b) run_block(b);
+                          });
       });
       if (o.cancel && o.cancel->load()) throw analysis_error("calibration cancelled");
       if (o.progress) o.progress(static_cast<double>(stop) / static_cast<double>(blocks));

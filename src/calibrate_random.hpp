@@ -4,7 +4,6 @@
 #pragma once
 #include <cmath>
 #include <cstdint>
-
 #include <pcg_random.hpp>
 
 namespace contrasta::detail::calibration {
@@ -17,7 +16,9 @@ inline std::uint64_t mix(std::uint64_t x) {
   return x ^ (x >> 31);
 }
 
-inline pcg32 block_stream(std::uint64_t seed, std::uint64_t block) { return pcg32(mix(seed ^ mix(block)), block); }
+inline pcg32 block_stream(std::uint64_t seed, std::uint64_t block) {
+  return pcg32(mix(seed ^ mix(block)), block);
+}
 
 // Uniform in (0, 1) from 53 random bits (never 0, so log() is safe).
 inline double uniform_open(pcg32& rng) {

@@ -10,8 +10,8 @@
 namespace contrasta::detail {
 
 struct pooled_ranks {
-  std::vector<double> ranks;   // mid-ranks (1-based), in the order the samples were given
-  double tie_sum = 0;          // sum over tie groups of t^3 - t
+  std::vector<double> ranks;  // mid-ranks (1-based), in the order the samples were given
+  double tie_sum = 0;         // sum over tie groups of t^3 - t
 };
 
 // Ranks the concatenation of `samples`; tied values share the mean of the ranks they span.

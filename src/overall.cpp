@@ -126,7 +126,8 @@ overall_test alexander_govern_test(const prepared_data& p) {
     const double b = 48 * a * a;
     const double c = std::sqrt(a * std::log1p(ti * ti / nu));
     const double c2 = c * c, c3 = c2 * c, c4 = c2 * c2, c5 = c4 * c, c7 = c5 * c2;
-    const double z = c + (c3 + 3 * c) / b - (4 * c7 + 33 * c5 + 240 * c3 + 855 * c) / (10 * b * b + 8 * b * c4 + 1000 * b);
+    const double z =
+        c + (c3 + 3 * c) / b - (4 * c7 + 33 * c5 + 240 * c3 + 855 * c) / (10 * b * b + 8 * b * c4 + 1000 * b);
     a_statistic += z * z;
   }
   t.statistic = a_statistic;

@@ -19,7 +19,6 @@ namespace {
 
 // Thresholds of the rules (docs/diagnostics.md, "The rule set").
 constexpr std::size_t tiny_group = 5;              // R1: smallest n below this
-constexpr double discrete_tied_share = 0.8;        // R2: share of tied observations, any scale
 constexpr double discrete_scale_tied_share = 0.3;  // R2: with few distinct values
 constexpr std::size_t discrete_distinct = 21;      // R2: "few": a 0-20 scale or shorter
 constexpr std::size_t shape_min_n = 8;             // R3: residual shape read from N >= 8
@@ -60,7 +59,9 @@ std::string percent(double share, int decimals = 1) {
   return buf;
 }
 
-std::string quoted(const prepared_data& p, std::size_t level) { return "'" + p.data.levels[level] + "'"; }
+std::string quoted(const prepared_data& p, std::size_t level) {
+  return "'" + p.data.levels[level] + "'";
+}
 
 // Whether this build can run a method (methods not yet in the build throw analysis_error). Probed
 // once per process on a small fixed dataset; the answer cannot change while the program runs.
@@ -110,10 +111,10 @@ facts gather(const diagnostics_report& d) {
   facts f;
   f.smallest_n = d.spread.smallest_n;
   f.smallest_level = d.spread.smallest_n_level;
-  // Few distinct values (a rating scale, small counts) with many ties, or ties nearly everywhere.
-  // Finely rounded measurements have many distinct values and stay with the means.
-  f.discrete = d.ties.tied_share >= discrete_tied_share ||
-               (d.ties.distinct_values <= discrete_distinct && d.ties.tied_share >= discrete_scale_tied_share);
+  // Few distinct values (a rating scale, small counts) with many ties. Finely rounded
+  // measurements tie often too (90% of 180 values rounded to 0.1 SD share a value) but take many
+  // distinct values, and stay with the means.
+  f.discrete = d.ties.distinct_values <= discrete_distinct && d.ties.tied_share >= discrete_scale_tied_share;
   f.residual_n = d.residuals.n;
   f.residual_skewness = d.residuals.skewness;
   f.residual_kurtosis = d.residuals.excess_kurtosis;
@@ -150,11 +151,14 @@ const calibration_row* find_row(const calibration_report& c, const std::string& 
 
 // Liberal beyond Monte Carlo noise: even the lower end of a 99% interval exceeds 1.5 alpha
 // (Bradley 1978).
-bool clearly_liberal(const calibration_row& r) { return r.type1_error - 2.576 * r.type1_se > 1.5 * r.alpha; }
+bool clearly_liberal(const calibration_row& r) {
+  return r.type1_error - 2.576 * r.type1_se > 1.5 * r.alpha;
+}
 
 std::string calibration_text(const calibration_row& r) {
   return r.method + " rejected " + percent(r.type1_error) + " (Monte Carlo SE " + percent(r.type1_se, 2) + ") of " +
-         std::to_string(r.datasets) + " simulated equal-means datasets (" + (r.model == "normal" ? std::string("normal errors") : std::string("resampled residuals")) + ") at alpha " +
+         std::to_string(r.datasets) + " simulated equal-means datasets (" +
+         (r.model == "normal" ? std::string("normal errors") : std::string("resampled residuals")) + ") at alpha " +
          number(r.alpha);
 }
 
@@ -176,9 +180,11 @@ void apply_calibration(recommendation& rec, const calibration_report& c, const s
   for (const auto* r : primary_rows) liberal = liberal || clearly_liberal(*r);
   if (!liberal) {
     for (const auto* r : primary_rows) {
-      rec.reasons.push_back("calibration on this design: " + calibration_text(*r) +
-                            (within_bradley_band(r->type1_error, r->alpha) ? ", inside Bradley's (1978) band alpha/2 to 3 alpha/2"
-                                                                           : ", outside Bradley's (1978) band alpha/2 to 3 alpha/2 but within Monte Carlo noise"));
+      rec.reasons.push_back(
+          "calibration on this design: " + calibration_text(*r) +
+          (within_bradley_band(r->type1_error, r->alpha)
+               ? ", inside Bradley's (1978) band alpha/2 to 3 alpha/2"
+               : ", outside Bradley's (1978) band alpha/2 to 3 alpha/2 but within Monte Carlo noise"));
     }
   } else {
     std::string best;
@@ -197,7 +203,8 @@ void apply_calibration(recommendation& rec, const calibration_report& c, const s
         best_distance = distance;
       }
     }
-    for (const auto* r : primary_rows) rec.reasons.push_back("calibration on this design: " + calibration_text(*r) + ": too liberal");
+    for (const auto* r : primary_rows)
+      rec.reasons.push_back("calibration on this design: " + calibration_text(*r) + ": too liberal");
     if (!best.empty()) {
       for (const auto* r : rows_of(best)) rec.reasons.push_back("calibration on this design: " + calibration_text(*r));
       add_unique(rec.alternatives, rec.method);
@@ -211,12 +218,14 @@ void apply_calibration(recommendation& rec, const calibration_report& c, const s
   // Say so when the classical pooled t fails on this design, whatever was chosen.
   if (rec.method != "pooled") {
     for (const auto* r : rows_of("pooled"))
-      if (clearly_liberal(*r)) rec.reasons.push_back("calibration on this design: " + calibration_text(*r) + ": too liberal");
+      if (clearly_liberal(*r))
+        rec.reasons.push_back("calibration on this design: " + calibration_text(*r) + ": too liberal");
   }
   for (const auto* r : rows_of(rec.method))
     if (r->power)
       rec.reasons.push_back("simulated power of " + rec.method + " for " + r->power_contrast + " (" +
-                            (r->model == "normal" ? std::string("normal errors") : std::string("resampled residuals")) + "): " + percent(*r->power) + " (Monte Carlo SE " + percent(*r->power_se, 2) + ")");
+                            (r->model == "normal" ? std::string("normal errors") : std::string("resampled residuals")) +
+                            "): " + percent(*r->power) + " (Monte Carlo SE " + percent(*r->power_se, 2) + ")");
 }
 
 }  // namespace
@@ -244,17 +253,20 @@ recommendation recommend(const prepared_data& p, const diagnostics_report& d, co
     rec.method = rec.interval_method = "pooled";
     rec.reasons.push_back("level " + quoted(p, f.smallest_level) + " has n = " + std::to_string(f.smallest_n) +
                           ": it has no variance of its own, so only the pooled variance can serve; pooled assumes "
-                          "equal variances in all " + std::to_string(k) + " levels");
+                          "equal variances in all " +
+                          std::to_string(k) + " levels");
     rec.alternatives = {"permutation"};
   } else if (f.smallest_n < tiny_group) {
     rec.rules.push_back("R1 tiny groups");
     rec.method = f.discrete ? "rank" : "permutation";
     rec.interval_method = "welch";
-    rec.reasons.push_back("smallest group n = " + std::to_string(f.smallest_n) + " (level " + quoted(p, f.smallest_level) +
+    rec.reasons.push_back("smallest group n = " + std::to_string(f.smallest_n) + " (level " +
+                          quoted(p, f.smallest_level) +
                           "): too few to judge normality or trust a t approximation; a permutation test needs "
                           "neither and is exact when the arrangements are few (Fisher 1935; Pitman 1937)");
     if (f.discrete)
-      rec.reasons.push_back(percent(d.ties.tied_share, 0) + " of observations are tied: the permutation test on mid-ranks "
+      rec.reasons.push_back(percent(d.ties.tied_share, 0) +
+                            " of observations are tied: the permutation test on mid-ranks "
                             "handles ties exactly (Conover & Iman 1981)");
     rec.alternatives = {f.discrete ? "permutation" : "rank", "welch"};
   } else if (f.discrete) {
@@ -262,14 +274,16 @@ recommendation recommend(const prepared_data& p, const diagnostics_report& d, co
     rec.method = "rank";
     rec.interval_method = "welch";
     std::string what = d.ties.small_integer_scale
-                           ? "responses are whole numbers from " + number(d.ties.scale_min, 6) + " to " + number(d.ties.scale_max, 6) +
-                                 " with " + std::to_string(d.ties.distinct_values) + " distinct values"
+                           ? "responses are whole numbers from " + number(d.ties.scale_min, 6) + " to " +
+                                 number(d.ties.scale_max, 6) + " with " + std::to_string(d.ties.distinct_values) +
+                                 " distinct values"
                            : "responses take " + std::to_string(d.ties.distinct_values) + " distinct values";
     rec.reasons.push_back(what + " and " + percent(d.ties.tied_share, 0) +
                           " of observations are tied: a discrete scale, so the permutation test on mid-ranks "
                           "(exact for small samples, ties allowed; Conover & Iman 1981) is the primary test");
-    rec.notes.push_back("intervals for mean differences by Welch; on a rating scale read them as differences of "
-                        "average scores");
+    rec.notes.push_back(
+        "intervals for mean differences by Welch; on a rating scale read them as differences of "
+        "average scores");
     rec.alternatives = {"brunner-munzel", "permutation", "welch"};
   } else if (!f.confirmed_outliers.empty() || f.skewed || f.heavy_tailed) {
     rec.rules.push_back("R3 heavy tails or outliers");
@@ -282,29 +296,33 @@ recommendation recommend(const prepared_data& p, const diagnostics_report& d, co
       const std::size_t count = f.confirmed_outliers.size();
       rec.reasons.push_back((count == 1 ? std::string("an outlier") : std::to_string(count) + " outliers") +
                             " by the modified z-score rule (|z| > 3.5; Iglewicz & Hoaglin 1993) in a level with heavy "
-                            "tails" + (count == 1 ? ": " : "; the most extreme ") + number(flagged.value, 6) + " in level " +
-                            quoted(p, flagged.level) + " (row " + std::to_string(flagged.row) + ", z = " +
-                            fixed(flagged.robust_z, 1) + "; excess kurtosis of that level " +
+                            "tails" +
+                            (count == 1 ? ": " : "; the most extreme ") + number(flagged.value, 6) + " in level " +
+                            quoted(p, flagged.level) + " (row " + std::to_string(flagged.row) +
+                            ", z = " + fixed(flagged.robust_z, 1) + "; excess kurtosis of that level " +
                             fixed(f.confirmed_kurtosis[worst], 1) + ")");
     }
     if (f.skewed)
-      rec.reasons.push_back("skewness of the standardized residuals " + fixed(f.residual_skewness) + " (N = " +
-                            std::to_string(f.residual_n) + "; |G1| >= 1: highly skewed, common practice)");
+      rec.reasons.push_back("skewness of the standardized residuals " + fixed(f.residual_skewness) +
+                            " (N = " + std::to_string(f.residual_n) + "; |G1| >= 1: highly skewed, common practice)");
     if (f.heavy_tailed)
-      rec.reasons.push_back("excess kurtosis of the standardized residuals " + fixed(f.residual_kurtosis, 1) + " (N = " +
-                            std::to_string(f.residual_n) + "; >= 3: heavy tails, common practice)");
-    rec.reasons.push_back("trimmed means (20%, Yuen 1974) resist outliers and heavy tails and allow unequal variances "
-                          "(Wilcox, Introduction to Robust Estimation and Hypothesis Testing)");
+      rec.reasons.push_back("excess kurtosis of the standardized residuals " + fixed(f.residual_kurtosis, 1) +
+                            " (N = " + std::to_string(f.residual_n) + "; >= 3: heavy tails, common practice)");
+    rec.reasons.push_back(
+        "trimmed means (20%, Yuen 1974) resist outliers and heavy tails and allow unequal variances "
+        "(Wilcox, Introduction to Robust Estimation and Hypothesis Testing)");
     rec.alternatives = {"rank", "welch", "permutation"};
   } else {
     rec.rules.push_back("R4 default");
     rec.method = rec.interval_method = "welch";
-    std::string outliers_text = d.outliers.empty() ? "no outliers"
-                                                   : std::to_string(d.outliers.size()) + " flagged value" +
-                                                         (d.outliers.size() == 1 ? "" : "s") + " without heavy tails in its level";
+    std::string outliers_text = d.outliers.empty()
+                                    ? "no outliers"
+                                    : std::to_string(d.outliers.size()) + " flagged value" +
+                                          (d.outliers.size() == 1 ? "" : "s") + " without heavy tails in its level";
     rec.reasons.push_back("smallest n = " + std::to_string(f.smallest_n) + ", " + outliers_text +
-                          ", standardized residuals with skewness " + fixed(f.residual_skewness) + " and excess kurtosis " +
-                          fixed(f.residual_kurtosis, 1) + ": means are a fair summary; Welch is the sound default, "
+                          ", standardized residuals with skewness " + fixed(f.residual_skewness) +
+                          " and excess kurtosis " + fixed(f.residual_kurtosis, 1) +
+                          ": means are a fair summary; Welch is the sound default, "
                           "losing little when variances are equal (Delacre, Lakens & Leys 2017)");
     rec.alternatives = {"trimmed", "permutation"};
   }
@@ -312,10 +330,10 @@ recommendation recommend(const prepared_data& p, const diagnostics_report& d, co
   // Spread facts (S1, S2): explain the pooled-versus-separate choice with numbers.
   if (!std::isnan(s.sd_ratio)) {
     const std::string sd_text = "SD ratio " + fixed(s.sd_ratio, 1) + " (largest SD " +
-                                number(p.groups[s.largest_sd_level].sd) + " in " + quoted(p, s.largest_sd_level) + ", n = " +
-                                std::to_string(p.groups[s.largest_sd_level].n) + "; smallest " +
-                                number(p.groups[s.smallest_sd_level].sd) + " in " + quoted(p, s.smallest_sd_level) + ", n = " +
-                                std::to_string(p.groups[s.smallest_sd_level].n) + ")";
+                                number(p.groups[s.largest_sd_level].sd) + " in " + quoted(p, s.largest_sd_level) +
+                                ", n = " + std::to_string(p.groups[s.largest_sd_level].n) + "; smallest " +
+                                number(p.groups[s.smallest_sd_level].sd) + " in " + quoted(p, s.smallest_sd_level) +
+                                ", n = " + std::to_string(p.groups[s.smallest_sd_level].n) + ")";
     const bool unequal = s.sd_ratio > sd_ratio_limit || s.pooled_se_ratio < pooled_se_limit;
     if (unequal) {
       rec.rules.push_back("S1 unequal variances");
@@ -337,7 +355,8 @@ recommendation recommend(const prepared_data& p, const diagnostics_report& d, co
                             ": spreads and sizes are balanced, so pooled and Welch nearly agree");
       if (rec.method == "welch") add_unique(rec.alternatives, "pooled");
     } else {
-      rec.reasons.push_back(sd_text + " and n ratio " + fixed(s.n_ratio, 1) + ": below the common-practice warning sign of 2");
+      rec.reasons.push_back(sd_text + " and n ratio " + fixed(s.n_ratio, 1) +
+                            ": below the common-practice warning sign of 2");
     }
   }
 
@@ -351,7 +370,8 @@ recommendation recommend(const prepared_data& p, const diagnostics_report& d, co
                           p_text(f.residual_shapiro_p) + ": reported; the shape figures above carry the decision");
 
   if (calibration && !calibration->rows.empty()) {
-    std::vector<std::string> preference = {"welch", "trimmed", "permutation", "rank", "brunner-munzel", "bootstrap", "pooled"};
+    std::vector<std::string> preference = {"welch",          "trimmed",   "permutation", "rank",
+                                           "brunner-munzel", "bootstrap", "pooled"};
     std::stable_partition(preference.begin(), preference.end(), [&](const std::string& m) { return m == rec.method; });
     apply_calibration(rec, *calibration, preference);
   }
@@ -359,7 +379,8 @@ recommendation recommend(const prepared_data& p, const diagnostics_report& d, co
   // A method this build cannot run falls back to Welch (or pooled for a group of one).
   if (!method_available(rec.method)) {
     const std::string fallback = f.smallest_n < 2 ? "pooled" : "welch";
-    rec.notes.push_back(rec.method + " would be preferred but is not available in this build: " + fallback + " instead");
+    rec.notes.push_back(rec.method + " would be preferred but is not available in this build: " + fallback +
+                        " instead");
     rec.method = fallback;
   }
   if (!method_available(rec.interval_method)) rec.interval_method = f.smallest_n < 2 ? "pooled" : "welch";

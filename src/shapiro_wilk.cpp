@@ -141,5 +141,4 @@ double shapiro_wilk_p_value(double w, std::size_t n) {
   return p_value_of(1 - w, n);
 }
 
-
 }  // namespace contrasta

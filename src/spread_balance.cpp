@@ -42,8 +42,8 @@ spread_balance describe_spread(const prepared_data& p) {
     }
     out.largest_n = std::max(out.largest_n, groups[i].n);
   }
-  out.n_ratio = out.smallest_n > 0 ? static_cast<double>(out.largest_n) / static_cast<double>(out.smallest_n)
-                                   : not_available;
+  out.n_ratio =
+      out.smallest_n > 0 ? static_cast<double>(out.largest_n) / static_cast<double>(out.smallest_n) : not_available;
 
   std::vector<double> sizes, variances;
   double largest_sd = -1, smallest_sd = std::numeric_limits<double>::infinity();
@@ -61,8 +61,10 @@ spread_balance describe_spread(const prepared_data& p) {
     }
   }
   if (sizes.size() >= 2) {
-    if (smallest_sd > 0) out.sd_ratio = largest_sd / smallest_sd;
-    else if (largest_sd > 0) out.sd_ratio = std::numeric_limits<double>::infinity();
+    if (smallest_sd > 0)
+      out.sd_ratio = largest_sd / smallest_sd;
+    else if (largest_sd > 0)
+      out.sd_ratio = std::numeric_limits<double>::infinity();
     out.size_variance_correlation = pearson_correlation(sizes, variances);
     out.larger_variances_in_smaller_groups = out.size_variance_correlation < 0;
   }

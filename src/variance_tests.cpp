@@ -62,9 +62,15 @@ variance_test levene_test(const sample_list& groups, levene_centre centre, doubl
     double c = not_available;
     if (!g.empty()) {
       switch (centre) {
-        case levene_centre::mean: c = accurate_mean(g); break;
-        case levene_centre::median: c = median_of(g); break;
-        case levene_centre::trimmed: c = trimmed_mean_of(g, trim); break;
+        case levene_centre::mean:
+          c = accurate_mean(g);
+          break;
+        case levene_centre::median:
+          c = median_of(g);
+          break;
+        case levene_centre::trimmed:
+          c = trimmed_mean_of(g, trim);
+          break;
       }
     }
     std::vector<double> z;

@@ -1,13 +1,12 @@
 // Calibration by simulation against the theory it must reproduce.
+#include "contrasta/calibrate.hpp"
+
 #include <doctest/doctest.h>
 
+#include <boost/math/distributions/normal.hpp>
 #include <cmath>
 #include <string>
 #include <vector>
-
-#include <boost/math/distributions/normal.hpp>
-
-#include "contrasta/calibrate.hpp"
 
 using namespace contrasta;
 
@@ -72,7 +71,8 @@ TEST_CASE("n = (5, 20), SDs (4, 1): pooled t is liberal, Welch holds alpha") {
 }
 
 TEST_CASE("the same seed gives identical calibration for any thread count") {
-  const auto p = prepare(make_dataset({"a", "b", "c"}, {exact_sd_sample(6, 2), exact_sd_sample(9, 1), exact_sd_sample(7, 3)}));
+  const auto p =
+      prepare(make_dataset({"a", "b", "c"}, {exact_sd_sample(6, 2), exact_sd_sample(9, 1), exact_sd_sample(7, 3)}));
   calibration_request request;
   request.datasets = 300;
   request.methods = {"pooled", "welch"};
@@ -97,7 +97,8 @@ TEST_CASE("the same seed gives identical calibration for any thread count") {
   o.seed = 8;
   const auto other = calibrate(p, request, o);
   bool differs = false;
-  for (std::size_t i = 0; i < one.rows.size(); ++i) differs = differs || other.rows[i].type1_error != one.rows[i].type1_error;
+  for (std::size_t i = 0; i < one.rows.size(); ++i)
+    differs = differs || other.rows[i].type1_error != one.rows[i].type1_error;
   CHECK(differs);
 }
 

@@ -1,12 +1,13 @@
 // Diagnostics against outside references. Sources beside each check; the reference values come
 // from tests/reference/diagnostics_fixtures.py (scipy 1.10.1 on Debian) unless stated.
+#include "contrasta/diagnostics.hpp"
+
 #include <doctest/doctest.h>
 
 #include <cmath>
 #include <string>
 #include <vector>
 
-#include "contrasta/diagnostics.hpp"
 #include "fixture.hpp"
 
 using namespace contrasta;
@@ -56,7 +57,8 @@ TEST_CASE("variance tests, skewness and kurtosis agree with scipy to 1e-10") {
     const auto skew = c["skewness"].numbers();
     for (std::size_t i = 0; i < shapes.size(); ++i) {
       check_close(shapes[i].skewness, skew[i], 1e-10, "skewness");
-      if (!c["kurtosis"][i].is_null()) check_close(shapes[i].excess_kurtosis, c["kurtosis"][i].num(), 1e-10, "kurtosis");
+      if (!c["kurtosis"][i].is_null())
+        check_close(shapes[i].excess_kurtosis, c["kurtosis"][i].num(), 1e-10, "kurtosis");
     }
   }
 }
@@ -84,7 +86,8 @@ TEST_CASE("Shapiro-Wilk agrees with scipy.stats.shapiro within its single precis
     worst_w = std::max(worst_w, ew);
     if (want_p > 1e-3 && x.size() <= 500) worst_p = std::max(worst_p, std::abs(r.p_value - want_p) / want_p);
   }
-  MESSAGE("Shapiro-Wilk vs scipy: worst W relative error " << worst_w << ", worst p relative error (p > 1e-3, n <= 500) " << worst_p);
+  MESSAGE("Shapiro-Wilk vs scipy: worst W relative error "
+          << worst_w << ", worst p relative error (p > 1e-3, n <= 500) " << worst_p);
   for (auto& c : fx["variance"].arr()) {
     const auto p = prepared_of(groups_of(c["groups"]));
     const auto normal = normality_tests(p);

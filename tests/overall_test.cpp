@@ -1,12 +1,13 @@
 // Overall tests against scipy/statsmodels (tests/reference/overall_fixtures.py) and a published
 // worked example.
+#include "contrasta/overall.hpp"
+
 #include <doctest/doctest.h>
 
 #include <cmath>
 #include <string>
 #include <vector>
 
-#include "contrasta/overall.hpp"
 #include "fixture.hpp"
 
 using namespace contrasta;

@@ -2,18 +2,18 @@
 // Phi^-1((i - 3/8)/(n + 1/4)) (Blom 1958) so that each scenario has exactly the shape it claims
 // (no chance outliers, no chance skew) and the expected outcome follows from the documented
 // rule set (docs/diagnostics.md) and its sources.
+#include "contrasta/recommend.hpp"
+
 #include <doctest/doctest.h>
 
 #include <algorithm>
+#include <boost/math/distributions/normal.hpp>
 #include <cmath>
 #include <string>
 #include <vector>
 
-#include <boost/math/distributions/normal.hpp>
-
 #include "contrasta/error.hpp"
 #include "contrasta/methods.hpp"
-#include "contrasta/recommend.hpp"
 
 using namespace contrasta;
 
@@ -23,7 +23,8 @@ std::vector<double> normal_scores(std::size_t n, double mean, double sd) {
   boost::math::normal standard;
   std::vector<double> out;
   for (std::size_t i = 1; i <= n; ++i)
-    out.push_back(mean + sd * boost::math::quantile(standard, (static_cast<double>(i) - 0.375) / (static_cast<double>(n) + 0.25)));
+    out.push_back(mean + sd * boost::math::quantile(
+                                  standard, (static_cast<double>(i) - 0.375) / (static_cast<double>(n) + 0.25)));
   return out;
 }
 
@@ -102,8 +103,10 @@ TEST_CASE("gross outliers: trimmed means, with the outlier's row") {
   const auto r = recommend(p, analysis_options{});
   CHECK(fired(r, "R3 heavy tails or outliers"));
   CHECK(mentions(r, "row 24"));
-  if (available("trimmed")) CHECK(r.method == "trimmed");
-  else CHECK(mentions(r, "not available in this build"));
+  if (available("trimmed"))
+    CHECK(r.method == "trimmed");
+  else
+    CHECK(mentions(r, "not available in this build"));
   check_reasons_have_numbers(r);
 }
 
@@ -116,14 +119,16 @@ TEST_CASE("a 0-10 panel scale with ties: the rank method") {
   const auto r = recommend(p, analysis_options{});
   CHECK(fired(r, "R2 ties and discrete scale"));
   CHECK(mentions(r, "whole numbers from 3 to 10"));
-  if (available("rank")) CHECK(r.method == "rank");
-  else CHECK(mentions(r, "not available in this build"));
+  if (available("rank"))
+    CHECK(r.method == "rank");
+  else
+    CHECK(mentions(r, "not available in this build"));
   check_reasons_have_numbers(r);
 }
 
 TEST_CASE("finely rounded measurements keep the means even with many ties") {
-  // Three levels of 60 values rounded to 0.1 g: many ties, but dozens of distinct values, so the
-  // discrete-scale rule R2 stays silent (its thresholds: <= 21 distinct values, or >= 80% tied).
+  // Three levels of 60 values rounded to 0.1 g: 90% of values tied, but 75 distinct values, so the
+  // discrete-scale rule R2 (at most 21 distinct values) stays silent.
   std::vector<std::vector<double>> groups;
   for (double mean : {50.0, 50.5, 51.0}) {
     auto g = normal_scores(60, mean, 2);
@@ -145,8 +150,10 @@ TEST_CASE("one tiny group: permutation") {
   const auto r = recommend(p, analysis_options{});
   CHECK(fired(r, "R1 tiny groups"));
   CHECK(mentions(r, "n = 3"));
-  if (available("permutation")) CHECK(r.method == "permutation");
-  else CHECK(mentions(r, "not available in this build"));
+  if (available("permutation"))
+    CHECK(r.method == "permutation");
+  else
+    CHECK(mentions(r, "not available in this build"));
   CHECK(r.interval_method == "welch");
   // A group of one has no variance of its own: only pooled can run.
   const auto q = prepared_of({{4.0}, normal_scores(10, 5, 1)});

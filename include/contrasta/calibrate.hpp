@@ -23,8 +23,8 @@ std::string to_string(error_model m);
 
 struct calibration_request {
   std::size_t datasets = 2000;
-  std::vector<std::string> methods;   // empty: every method of method_names() that runs here
-  std::vector<contrast> contrasts;    // empty: all pairs of levels
+  std::vector<std::string> methods;  // empty: every method of method_names() that runs here
+  std::vector<contrast> contrasts;   // empty: all pairs of levels
   std::vector<error_model> models = {error_model::normal, error_model::residuals};
   // Power: the simulated means keep the observed pattern of means, scaled so that the largest
   // difference between two levels equals `effect` (data units).
@@ -36,7 +36,7 @@ struct calibration_request {
 
 struct calibration_row {
   std::string method;
-  std::string model;          // normal | residuals
+  std::string model;  // normal | residuals
   double alpha = 0.05;
   std::size_t datasets = 0;
   std::size_t contrasts = 0;
@@ -45,17 +45,17 @@ struct calibration_row {
   // correctly).
   double type1_error = 0;
   double type1_se = 0;
-  double worst_type1_error = 0;     // the contrast with the highest rejection rate
+  double worst_type1_error = 0;  // the contrast with the highest rejection rate
   std::string worst_contrast;
-  std::optional<double> power;      // with an effect: rejection rate for the largest true contrast
+  std::optional<double> power;  // with an effect: rejection rate for the largest true contrast
   std::optional<double> power_se;
   std::string power_contrast;
-  std::size_t failures = 0;         // method could not run on a simulated dataset (counted as no rejection)
+  std::size_t failures = 0;  // method could not run on a simulated dataset (counted as no rejection)
 };
 
 struct calibration_report {
-  std::vector<calibration_row> rows;       // method by method, each error model in request order
-  std::vector<std::string> skipped;        // methods not run, with the reason
+  std::vector<calibration_row> rows;  // method by method, each error model in request order
+  std::vector<std::string> skipped;   // methods not run, with the reason
   std::uint64_t seed = 0;
   std::size_t datasets = 0;
   std::uint64_t method_resamples = 0;
@@ -64,8 +64,7 @@ struct calibration_report {
 
 // Deterministic for a seed (options.seed) whatever options.threads: each fixed block of
 // datasets draws from its own pcg32 stream.
-calibration_report calibrate(const prepared_data& p, const calibration_request& request,
-                             const analysis_options& o);
+calibration_report calibrate(const prepared_data& p, const calibration_request& request, const analysis_options& o);
 
 // Binomial-type band: Bradley's (1978) liberal criterion for a robust test's size, alpha/2 to
 // 3 alpha/2 (Br. J. Math. Stat. Psychol. 31:144-152).

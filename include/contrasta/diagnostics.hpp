@@ -116,8 +116,8 @@ std::vector<outlier> find_outliers(const dataset& data, double threshold = 3.5);
 // together).
 struct ties_summary {
   std::size_t distinct_values = 0;
-  double tied_share = 0;        // share of observations whose value occurs more than once
-  bool integer_values = false;  // every value is a whole number
+  double tied_share = 0;                // share of observations whose value occurs more than once
+  bool integer_values = false;          // every value is a whole number
   double scale_min = 0, scale_max = 0;  // smallest and largest value, data units
   // Whole numbers on a short range (at most 21 distinct points: 0-10 and 0-20 rating scales,
   // counts of a few): common practice for "treat as discrete".

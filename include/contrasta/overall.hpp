@@ -9,12 +9,12 @@
 namespace contrasta {
 
 struct overall_test {
-  std::string test;            // anova-f | welch-f | brown-forsythe-f | alexander-govern | kruskal-wallis
+  std::string test;  // anova-f | welch-f | brown-forsythe-f | alexander-govern | kruskal-wallis
   double statistic = 0;
   double df1 = 0;
-  std::optional<double> df2;   // absent for chi-square tests
+  std::optional<double> df2;  // absent for chi-square tests
   double p_value = 0;
-  std::string null_hypothesis; // words
+  std::string null_hypothesis;  // words
 };
 
 // Classical one-way ANOVA F(k-1, N-k), from the prepared ANOVA table.

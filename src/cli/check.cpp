@@ -50,7 +50,9 @@ std::string level_name(const prepared_data& p, std::optional<std::size_t> level)
   return level ? p.data.levels[*level] : std::string("pooled residuals");
 }
 
-std::string percent_text(double share, int decimals = 1) { return fixed(100 * share, decimals) + "%"; }
+std::string percent_text(double share, int decimals = 1) {
+  return fixed(100 * share, decimals) + "%";
+}
 
 // ---- JSON ----------------------------------------------------------------------------------
 
@@ -75,8 +77,10 @@ void write_diagnostics_json(json_writer& json, const check_result& r) {
   for (const auto& n : d.normality) {
     json.begin_object();
     json.key("level");
-    if (n.level) json.value(p.data.levels[*n.level]);
-    else json.null();
+    if (n.level)
+      json.value(p.data.levels[*n.level]);
+    else
+      json.null();
     json.field("test", n.test).field("n", static_cast<std::uint64_t>(n.n));
     json.field("statistic", n.statistic).field("p_value", n.p_value);
     json.end_object();
@@ -112,7 +116,10 @@ void write_diagnostics_json(json_writer& json, const check_result& r) {
   json.key("outliers").begin_array();
   for (const auto& o : d.outliers) {
     json.begin_object();
-    json.field("level", p.data.levels[o.level]).field("row", o.row).field("value", o.value).field("robust_z", o.robust_z);
+    json.field("level", p.data.levels[o.level])
+        .field("row", o.row)
+        .field("value", o.value)
+        .field("robust_z", o.robust_z);
     json.end_object();
   }
   json.end_array();
@@ -145,7 +152,8 @@ void write_calibration_json(json_writer& json, const calibration_report& c) {
 void write_check_object(json_writer& json, const check_result& r, bool with_tool_and_seed) {
   const auto& p = r.prepared;
   json.begin_object();
-  if (with_tool_and_seed) json.key("tool").begin_object().field("name", "contrasta").field("version", version()).end_object();
+  if (with_tool_and_seed)
+    json.key("tool").begin_object().field("name", "contrasta").field("version", version()).end_object();
   json.key("input").begin_object();
   json.field("source", p.data.source).field("group", p.data.group_column).field("response", p.data.response);
   json.key("levels").strings(p.data.levels);
@@ -196,8 +204,8 @@ struct csv_writer {
     out << cell(section) << ',' << cell(name) << ',' << cell(level) << ',' << row_number << ',' << cell(quantity) << ','
         << cell(value) << '\n';
   }
-  void number(const std::string& section, const std::string& name, const std::string& level, const std::string& quantity,
-              double v) {
+  void number(const std::string& section, const std::string& name, const std::string& level,
+              const std::string& quantity, double v) {
     row(section, name, level, "", quantity, std::isnan(v) ? "" : number_text(v));
   }
 };
@@ -246,7 +254,8 @@ void write_check_csv(std::ostream& out, const std::vector<check_result>& results
     w.row("ties", "small_integer_scale", "", "", "value", d.ties.small_integer_scale ? "true" : "false");
     for (const auto& o : d.outliers) {
       w.row("outlier", "modified_z", p.data.levels[o.level], std::to_string(o.row), "value", number_text(o.value));
-      w.row("outlier", "modified_z", p.data.levels[o.level], std::to_string(o.row), "robust_z", number_text(o.robust_z));
+      w.row("outlier", "modified_z", p.data.levels[o.level], std::to_string(o.row), "robust_z",
+            number_text(o.robust_z));
     }
     if (r.calibration) {
       for (const auto& c : r.calibration->rows) {
@@ -279,10 +288,12 @@ text_table shape_table(const check_result& r) {
         w = fixed(n.statistic, 4);
         pv = p_text(n.p_value);
       }
-    t.rows.push_back({p.data.levels[s.level], std::to_string(s.n), fixed(s.skewness, 2), fixed(s.excess_kurtosis, 2), w, pv});
+    t.rows.push_back(
+        {p.data.levels[s.level], std::to_string(s.n), fixed(s.skewness, 2), fixed(s.excess_kurtosis, 2), w, pv});
   }
   for (const auto& n : r.diagnostics.normality)
-    if (!n.level) t.rows.push_back({"pooled residuals", std::to_string(n.n), "", "", fixed(n.statistic, 4), p_text(n.p_value)});
+    if (!n.level)
+      t.rows.push_back({"pooled residuals", std::to_string(n.n), "", "", fixed(n.statistic, 4), p_text(n.p_value)});
   return t;
 }
 
@@ -301,7 +312,8 @@ text_table outlier_table(const check_result& r) {
   t.header = {"level", "row", "value", "modified z"};
   t.right = {false, true, true, true};
   for (const auto& o : r.diagnostics.outliers)
-    t.rows.push_back({r.prepared.data.levels[o.level], std::to_string(o.row), general(o.value, 8), fixed(o.robust_z, 2)});
+    t.rows.push_back(
+        {r.prepared.data.levels[o.level], std::to_string(o.row), general(o.value, 8), fixed(o.robust_z, 2)});
   return t;
 }
 
@@ -334,17 +346,19 @@ std::vector<std::string> spread_lines(const check_result& r) {
   const auto& s = r.diagnostics.spread;
   std::vector<std::string> lines;
   if (!std::isnan(s.sd_ratio))
-    lines.push_back("SD ratio (largest/smallest) " + general(s.sd_ratio, 3) + ": largest in '" + p.data.levels[s.largest_sd_level] +
-                    "' (n = " + std::to_string(p.groups[s.largest_sd_level].n) + "), smallest in '" +
-                    p.data.levels[s.smallest_sd_level] + "' (n = " + std::to_string(p.groups[s.smallest_sd_level].n) + ")");
-  lines.push_back("n ratio (largest/smallest) " + general(s.n_ratio, 3) + "; smallest n = " + std::to_string(s.smallest_n));
+    lines.push_back("SD ratio (largest/smallest) " + general(s.sd_ratio, 3) + ": largest in '" +
+                    p.data.levels[s.largest_sd_level] + "' (n = " + std::to_string(p.groups[s.largest_sd_level].n) +
+                    "), smallest in '" + p.data.levels[s.smallest_sd_level] +
+                    "' (n = " + std::to_string(p.groups[s.smallest_sd_level].n) + ")");
+  lines.push_back("n ratio (largest/smallest) " + general(s.n_ratio, 3) +
+                  "; smallest n = " + std::to_string(s.smallest_n));
   if (!std::isnan(s.size_variance_correlation))
     lines.push_back(std::string("larger variances in the smaller groups: ") +
                     (s.larger_variances_in_smaller_groups ? "yes" : "no") + " (correlation of n with variance " +
                     fixed(s.size_variance_correlation, 2) + ")");
   if (!std::isnan(s.pooled_se_ratio))
-    lines.push_back("pooled / separate-variance standard error, worst pair '" + p.data.levels[s.pooled_se_pair_first] + "' vs '" +
-                    p.data.levels[s.pooled_se_pair_second] + "': " + fixed(s.pooled_se_ratio, 2) +
+    lines.push_back("pooled / separate-variance standard error, worst pair '" + p.data.levels[s.pooled_se_pair_first] +
+                    "' vs '" + p.data.levels[s.pooled_se_pair_second] + "': " + fixed(s.pooled_se_ratio, 2) +
                     (s.pooled_se_ratio < 1 ? " (below 1: pooled t too large for that pair)" : ""));
   return lines;
 }
@@ -379,14 +393,19 @@ void write_check_table(std::ostream& out, const check_result& r) {
   test_table(r.diagnostics.variance).print(out, "    ");
   out << "\nTIES AND SCALE\n  " << ties_line(r) << '\n';
   out << "\nOUTLIERS (modified z-score beyond 3.5 within the level; Iglewicz & Hoaglin 1993)\n";
-  if (r.diagnostics.outliers.empty()) out << "  none\n";
-  else outlier_table(r).print(out);
+  if (r.diagnostics.outliers.empty())
+    out << "  none\n";
+  else
+    outlier_table(r).print(out);
   out << "\nOVERALL TESTS (does anything differ?)\n";
-  if (r.overall.empty()) out << "  none can be computed for these data\n";
-  else write_overall_table(out, r.overall);
+  if (r.overall.empty())
+    out << "  none can be computed for these data\n";
+  else
+    write_overall_table(out, r.overall);
   if (r.calibration) {
     const auto& c = *r.calibration;
-    out << "\nCALIBRATION (" << c.datasets << " simulated datasets per error model with these n and SDs and equal means;"
+    out << "\nCALIBRATION (" << c.datasets
+        << " simulated datasets per error model with these n and SDs and equal means;"
         << " band: alpha/2 to 3 alpha/2, Bradley 1978";
     if (c.effect) out << "; power at a largest difference of " << general(*c.effect, 4);
     out << ")\n";
@@ -417,8 +436,10 @@ void write_check_markdown(std::ostream& out, const check_result& r) {
   out << '\n';
   test_table(r.diagnostics.variance).print_markdown(out);
   out << "\n## Ties and scale\n\n" << markdown_escape(ties_line(r)) << "\n\n## Outliers\n\n";
-  if (r.diagnostics.outliers.empty()) out << "None (modified z-score rule, |z| > 3.5).\n";
-  else outlier_table(r).print_markdown(out);
+  if (r.diagnostics.outliers.empty())
+    out << "None (modified z-score rule, |z| > 3.5).\n";
+  else
+    outlier_table(r).print_markdown(out);
   out << "\n## Overall tests\n\n";
   test_table(r.overall).print_markdown(out);
   if (r.calibration) {
@@ -434,7 +455,8 @@ void write_check_markdown(std::ostream& out, const check_result& r) {
     out << ".\n";
   }
   for (const auto& note : r.advice.notes) out << "\n> note: " << markdown_escape(note) << '\n';
-  out << "\n> " << "Check the design and the assumptions before the numbers; a p-value is not an effect size;\n"
+  out << "\n> "
+      << "Check the design and the assumptions before the numbers; a p-value is not an effect size;\n"
       << "> decisions under regulation or licence follow local rules and a qualified statistician.\n";
 }
 
@@ -470,7 +492,8 @@ check_result run_one(dataset data, const check_settings& s, const analysis_optio
 
 void run_check(const check_settings& s) {
   if (s.trim < 0 || s.trim >= 0.5) throw usage_error("--trim must be at least 0 and below 0.5");
-  if (s.effect && !(*s.effect > 0)) throw usage_error("--effect must be a positive difference in the units of the response");
+  if (s.effect && !(*s.effect > 0))
+    throw usage_error("--effect must be a positive difference in the units of the response");
   if (s.effect && !s.calibrate) throw usage_error("--effect sets the power simulation of --calibrate; add --calibrate");
   auto datasets = load_datasets(s.data);
   analysis_options o = make_analysis_options(s.run);
@@ -494,8 +517,10 @@ void run_check(const check_settings& s) {
     } else {
       for (std::size_t i = 0; i < results.size(); ++i) {
         if (i) out << '\n';
-        if (s.output.format == "markdown") write_check_markdown(out, results[i]);
-        else write_check_table(out, results[i]);
+        if (s.output.format == "markdown")
+          write_check_markdown(out, results[i]);
+        else
+          write_check_table(out, results[i]);
       }
     }
   });
