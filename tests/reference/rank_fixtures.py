@@ -216,6 +216,51 @@ def dunn_cases(rng, live):
     return out
 
 
+def welch_contrast_t(samples, coefficients, axis=-1):
+    """Welch t of sum c_i mean_i (vectorized over leading axes), the studentized statistic."""
+    est = 0
+    var = 0
+    for x, c in zip(samples, coefficients):
+        est = est + c * np.mean(x, axis=axis)
+        var = var + c * c * np.var(x, axis=axis, ddof=1) / x.shape[axis]
+    with np.errstate(divide="ignore", invalid="ignore"):
+        return est / np.sqrt(var)
+
+
+def rank_contrast_cases(rng, live):
+    """Exact permutation p of the studentized contrast of mid-ranks: scipy.stats.permutation_test
+    (n_resamples=inf, permutation_type="independent") over scipy.stats.rankdata of the pooled
+    involved levels. Two-sided p uses |T| with alternative="greater" (quality.md)."""
+    out = []
+    designs = [((5, 6), [1, -1], "scores"), ((6, 7), [1, -1], "normal"), ((4, 4, 5), [1, -0.5, -0.5], "scores"),
+               ((4, 5, 4), [2, -1, -1], "coarse"), ((3, 3, 3, 3), [1, 1, -1, -1], "scores"),
+               ((7, 5), [1, -1], "coarse")]
+    for sizes, coefficients, kind in designs:
+        groups = [sample(rng, kind, n) + (0.3 * i if kind != "scores" else 0) for i, n in enumerate(sizes)]
+        pooled = np.concatenate(groups)
+        ranks = stats.rankdata(pooled)
+        starts = np.cumsum([0] + list(sizes))
+        rank_groups = [ranks[starts[i]:starts[i + 1]] for i in range(len(sizes))]
+        observed = float(welch_contrast_t(rank_groups, coefficients))
+        estimate = float(sum(c * g.mean() for c, g in zip(coefficients, rank_groups)))
+
+        def two_sided(*s, axis=-1):
+            return np.abs(welch_contrast_t(s, coefficients, axis))
+
+        def signed(*s, axis=-1):
+            return welch_contrast_t(s, coefficients, axis)
+
+        kw = dict(permutation_type="independent", n_resamples=np.inf, vectorized=True, axis=-1)
+        p2 = stats.permutation_test(rank_groups, two_sided, alternative="greater", **kw)
+        pg = stats.permutation_test(rank_groups, signed, alternative="greater", **kw)
+        pl = stats.permutation_test(rank_groups, signed, alternative="less", **kw)
+        out.append({"groups": [g.tolist() for g in groups], "coefficients": coefficients,
+                    "statistic": observed, "estimate": estimate, "p": float(p2.pvalue),
+                    "p_greater": float(pg.pvalue), "p_less": float(pl.pvalue),
+                    "arrangements": int(len(p2.null_distribution))})
+    return out
+
+
 def main():
     # The no-overlap Brunner-Munzel case divides by zero on purpose (W = inf, df = nan).
     warnings.simplefilter("ignore", RuntimeWarning)
@@ -231,7 +276,8 @@ def main():
             "null_cdf": null_cdf_cases(),
             "hodges_lehmann": hodges_lehmann_cases(rng, a.live),
             "brunner_munzel": brunner_munzel_cases(rng, a.live),
-            "dunn": dunn_cases(rng, a.live)}
+            "dunn": dunn_cases(rng, a.live),
+            "rank_contrast": rank_contrast_cases(rng, a.live)}
     out = a.out or os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "data", "rank_fixtures.json")
     with open(out, "w") as f:
         json.dump(data, f, indent=1)
