@@ -157,3 +157,105 @@ TEST_CASE("Brunner-Munzel against scipy.stats.brunnermunzel") {
     }
   }
 }
+
+namespace {
+prepared_data prepared(const std::vector<std::vector<double>>& groups) {
+  std::vector<std::string> levels;
+  for (std::size_t i = 0; i < groups.size(); ++i) levels.push_back("g" + std::to_string(i + 1));
+  return prepare(make_dataset(levels, groups));
+}
+std::vector<std::vector<double>> groups_of(const fixture::value& v) {
+  std::vector<std::vector<double>> out;
+  for (const auto& g : v.arr()) out.push_back(g.numbers());
+  return out;
+}
+}  // namespace
+
+TEST_CASE("Dunn's z against the formula with scipy.stats.rankdata and scipy.stats.norm") {
+  worst_error w{"Dunn estimate/se/z/p vs formula with scipy rankdata + norm"};
+  for (const auto& d : fixtures()["dunn"].arr()) {
+    const prepared_data p = prepared(groups_of(d["groups"]));
+    for (const auto& c : d["contrasts"].arr()) {
+      const contrast k{"k", c["coefficients"].numbers(), "k"};
+      for (auto [side, key] : {std::pair{alternative::two_sided, "p"}, std::pair{alternative::greater, "p_greater"},
+                               std::pair{alternative::less, "p_less"}}) {
+        analysis_options o;
+        o.side = side;
+        const method_result r = dunn_contrast(p, k, o);
+        CHECK(r.method == "dunn");
+        CHECK(!r.df.has_value());
+        for (auto [got, want] : {std::pair{r.estimate, c["estimate"].num()}, std::pair{r.se, c["se"].num()},
+                                 std::pair{r.statistic, c["z"].num()}, std::pair{r.p_value, c[key].num()}}) {
+          w.add(got, want);
+          CHECK_MESSAGE(fixture::relative_error(got, want) <= tolerance, got << " vs " << want);
+        }
+      }
+    }
+  }
+}
+
+TEST_CASE("method wrappers: orientation, units and refusals") {
+  // Two levels a (positive coefficient) and b. Mann-Whitney U is that of a; the
+  // Hodges-Lehmann shift is a - b; the Brunner-Munzel estimate is P(a < b) + P(a = b)/2.
+  const prepared_data p = prepared({{19, 22, 16, 29, 24}, {20, 11, 17, 12}});
+  const analysis_options o;
+  const method_result mw = mann_whitney_contrast(p, contrast{"g1 - g2", {1, -1}, "g1 - g2"}, o);
+  CHECK(mw.statistic == 17);  // scipy.stats.mannwhitneyu documentation example, U of the first sample
+  CHECK(mw.exact);
+  // The 20 differences a - b of this example, sorted by hand: -4 -1 -1 2 2 4 4 5 5 7 7 8 9 10
+  // 11 12 12 13 17 18; the median (10th and 11th) is 7.
+  CHECK(mw.estimate == 7);
+  // Lehmann's 95% interval, by hand from the exact null counts of U for 5 and 4 (C(9, 4) = 126
+  // arrangements; U = 0, 1, 2 occur 1, 1, 2 times): P(U <= 1) = 2/126 <= 0.025 < P(U <= 2), so
+  // k = 2 and the interval is [D_(2), D_(19)] = [-1, 17] with confidence 1 - 4/126.
+  CHECK(mw.ci_low == -1);
+  CHECK(mw.ci_high == 17);
+  // The reversed contrast mirrors everything: U of the other level, shift negated.
+  const method_result back = mann_whitney_contrast(p, contrast{"g2 - g1", {-1, 1}, "g2 - g1"}, o);
+  CHECK(back.statistic == 20 - 17);
+  CHECK(back.estimate == -mw.estimate);
+  CHECK(back.ci_low == -mw.ci_high);
+  CHECK(back.p_value == mw.p_value);
+  // A contrast scaled by 2 reports the shift times 2.
+  const method_result twice = mann_whitney_contrast(p, contrast{"2(g1 - g2)", {2, -2}, "2*g1 - 2*g2"}, o);
+  CHECK(twice.estimate == 2 * mw.estimate);
+  CHECK(twice.p_value == mw.p_value);
+
+  const method_result bm = brunner_munzel_contrast(p, contrast{"g1 - g2", {1, -1}, "g1 - g2"}, o);
+  // P(g1 < g2) + P(g1 = g2)/2 by counting the 20 pairs: 3 of them have g1 < g2 (16<17, 16<20, 19<20).
+  CHECK(fixture::relative_error(bm.estimate, 3.0 / 20) <= 1e-15);
+  CHECK(bm.statistic < 0);
+  CHECK(bm.ci_low <= bm.estimate);
+  CHECK(bm.ci_high >= bm.estimate);
+
+  const prepared_data three = prepared({{1, 2, 3}, {4, 5, 6}, {7, 8, 9}});
+  const contrast not_two{"g1 - (g2 + g3)/2", {1, -0.5, -0.5}, "g1 - (g2 + g3)/2"};
+  CHECK_THROWS_AS(mann_whitney_contrast(three, not_two, o), analysis_error);
+  CHECK_THROWS_AS(brunner_munzel_contrast(three, not_two, o), analysis_error);
+  // Brunner-Munzel divides by n - 1 within each level.
+  const prepared_data single = prepared({{1}, {4, 5, 6}});
+  CHECK_THROWS_AS(brunner_munzel_contrast(single, contrast{"g1 - g2", {1, -1}, "g1 - g2"}, o), analysis_error);
+}
+
+TEST_CASE("rank contrast: exact permutation p against scipy.stats.permutation_test over rankdata") {
+  worst_error w{"rank contrast exact p vs scipy.stats.permutation_test(rankdata)"};
+  for (const auto& c : fixtures()["rank_contrast"].arr()) {
+    const prepared_data p = prepared(groups_of(c["groups"]));
+    const contrast k{"k", c["coefficients"].numbers(), "k"};
+    for (auto [side, key] : {std::pair{alternative::two_sided, "p"}, std::pair{alternative::greater, "p_greater"},
+                             std::pair{alternative::less, "p_less"}}) {
+      analysis_options o;
+      o.side = side;
+      o.exact = exact_mode::always;
+      o.threads = 1;
+      const method_result r = rank_contrast(p, k, o);
+      CHECK(r.method == "rank");
+      CHECK(r.exact);
+      CHECK(fixture::relative_error(r.estimate, c["estimate"].num()) <= 1e-12);
+      CHECK(fixture::relative_error(r.statistic, c["statistic"].num()) <= 1e-12);
+      w.add(r.p_value, c[key].num());
+      // quality.md: exact enumeration p equal to scipy.stats.permutation_test to 1e-12.
+      CHECK_MESSAGE(fixture::relative_error(r.p_value, c[key].num()) <= 1e-12, r.p_value << " vs " << c[key].num());
+    }
+  }
+}
