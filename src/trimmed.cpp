@@ -56,6 +56,22 @@ trimmed_sample trim_sample(std::span<const double> x, double trim) {
   return s;
 }
 
+namespace {
+// The summaries already hold the trimmed mean and winsorized variance (computed once, checked
+// against scipy in tests/robust_test.cpp); recompute only when they were made for another trim.
+trimmed_sample trimmed_summary(const prepared_data& p, std::size_t level, double trim) {
+  const group_summary& g = p.groups[level];
+  if (g.trim != trim || g.trimmed_per_side != trim_count(g.n, trim)) return trim_sample(p.data.group(level), trim);
+  trimmed_sample s;
+  s.n = g.n;
+  s.trimmed_per_side = g.trimmed_per_side;
+  s.kept = g.n - 2 * g.trimmed_per_side;
+  s.trimmed_mean = g.centred_trimmed_mean;
+  s.winsorized_variance = g.winsorized_variance;
+  return s;
+}
+}  // namespace
+
 method_result trimmed_contrast(const prepared_data& p, const contrast& c, const analysis_options& o) {
   const dataset& data = p.data;
   method_result r;
@@ -63,7 +79,7 @@ method_result trimmed_contrast(const prepared_data& p, const contrast& c, const 
   std::string trimmed_note = "trimmed from each end:";
   double estimate = 0, variance = 0, df_denominator = 0, coefficient_sum = 0;
   for (std::size_t level : c.involved()) {
-    const trimmed_sample s = trim_sample(data.group(level), o.trim);
+    const trimmed_sample s = trimmed_summary(p, level, o.trim);
     if (s.kept < 2)
       throw analysis_error("level '" + data.levels[level] + "' keeps " + std::to_string(s.kept) +
                            " observation(s) after trimming; Yuen's test needs at least 2: lower --trim or use rank");

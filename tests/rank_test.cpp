@@ -9,6 +9,7 @@
 #include <string>
 #include <vector>
 
+#include "contrasta/error.hpp"
 #include "contrasta/rank.hpp"
 #include "fixture.hpp"
 
@@ -161,7 +162,11 @@ TEST_CASE("Brunner-Munzel against scipy.stats.brunnermunzel") {
 namespace {
 prepared_data prepared(const std::vector<std::vector<double>>& groups) {
   std::vector<std::string> levels;
-  for (std::size_t i = 0; i < groups.size(); ++i) levels.push_back("g" + std::to_string(i + 1));
+  for (std::size_t i = 0; i < groups.size(); ++i) {
+    std::string level = "g";  // appended, not "g" + ...: GCC 12 -Wrestrict false positive
+    level += std::to_string(i + 1);
+    levels.push_back(level);
+  }
   return prepare(make_dataset(levels, groups));
 }
 std::vector<std::vector<double>> groups_of(const fixture::value& v) {
