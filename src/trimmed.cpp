@@ -92,7 +92,7 @@ method_result trimmed_contrast(const prepared_data& p, const contrast& c, const 
     coefficient_sum += ci;
     variance += component;
     df_denominator += component * component / (h - 1);
-    trimmed_note += " " + data.levels[level] + " " + std::to_string(s.trimmed_per_side) + " of " + std::to_string(s.n);
+    trimmed_note += (trimmed_note.back() == ':' ? " " : ", ") + data.levels[level] + " " + std::to_string(s.trimmed_per_side) + " of " + std::to_string(s.n);
   }
   // Centred trimmed means; a general linear combination gets the centre back.
   r.estimate = estimate + data.centre * coefficient_sum;
