@@ -145,11 +145,15 @@ def hodges_lehmann_cases(rng, live):
 
 def brunner_munzel_cases(rng, live):
     out = []
-    shapes = [(10, 12), (5, 7), (14, 11), (30, 20), (3, 3), (50, 8)]
+    shapes = [(10, 12), (5, 7), (14, 11), (30, 20), (3, 3), (50, 8), (40, 35)]
     for m, n in shapes:
-        for kind in ("normal", "scores", "skewed", "coarse"):
-            x = sample(rng, kind, m)
-            y = sample(rng, kind, n) * 1.5
+        for kind in ("normal", "scores", "skewed", "coarse", "far"):
+            if kind == "far":   # strongly separated levels: p far below 1e-6, where scipy's own p loses digits
+                x = rng.normal(0, 1, m)
+                y = rng.normal(2.2, 1, n)
+            else:
+                x = sample(rng, kind, m)
+                y = sample(rng, kind, n) * 1.5
             for side in ("two-sided", "greater", "less"):
                 res = stats.brunnermunzel(x, y, alternative=side)
                 w = float(res.statistic)
