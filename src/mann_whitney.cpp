@@ -133,6 +133,8 @@ method_result mann_whitney_contrast(const prepared_data& p, const contrast& c, c
   } else {
     std::snprintf(buffer, sizeof buffer, "normal approximation with tie and continuity corrections, z = %.4g", test.z);
     r.notes.push_back(buffer);
+    if (o.exact == exact_mode::always)
+      r.notes.push_back("exact distribution not used: it holds without ties only (and up to about 2^124 arrangements)");
   }
   if (shift.order == 0) {
     r.notes.push_back("too few observations to bound the shift at this confidence (Lehmann 1975 order statistics)");

@@ -233,6 +233,15 @@ TEST_CASE("method wrappers: orientation, units and refusals") {
   CHECK(bm.ci_low <= bm.estimate);
   CHECK(bm.ci_high >= bm.estimate);
 
+  // --exact always with ties: the no-ties distribution does not apply; the result says so.
+  analysis_options always = o;
+  always.exact = exact_mode::always;
+  const prepared_data tied = prepared({{1, 2, 2, 3}, {2, 4, 5}});
+  const method_result tie_result = mann_whitney_contrast(tied, contrast{"g1 - g2", {1, -1}, "g1 - g2"}, always);
+  CHECK(!tie_result.exact);
+  CHECK(std::any_of(tie_result.notes.begin(), tie_result.notes.end(),
+                    [](const std::string& n) { return n.find("exact distribution not used") != std::string::npos; }));
+
   const prepared_data three = prepared({{1, 2, 3}, {4, 5, 6}, {7, 8, 9}});
   const contrast not_two{"g1 - (g2 + g3)/2", {1, -0.5, -0.5}, "g1 - (g2 + g3)/2"};
   CHECK_THROWS_AS(mann_whitney_contrast(three, not_two, o), analysis_error);
