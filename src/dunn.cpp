@@ -35,7 +35,7 @@ method_result dunn_contrast(const prepared_data& p, const contrast& c, const ana
   r.estimand = "contrast of mean ranks (ranks over all levels)";
   r.estimate = estimate;
   r.se = std::sqrt(spread * weight);
-  r.statistic_name = std::string("z");  // a move: GCC 12 -Wrestrict false positive on = "z"
+  r.statistic_name = "z";
   r.statistic = r.estimate / r.se;
   const int side = o.side == alternative::greater ? 1 : o.side == alternative::less ? -1 : 0;
   r.p_value = detail::t_p_value(r.statistic, std::numeric_limits<double>::infinity(), side);

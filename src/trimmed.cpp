@@ -77,7 +77,7 @@ method_result trimmed_contrast(const prepared_data& p, const contrast& c, const 
   method_result r;
   r.method = "trimmed";
   std::string trimmed_note = "trimmed from each end:";
-  double estimate = 0, variance = 0, df_denominator = 0, coefficient_sum = 0;
+  double estimate = 0, variance = 0, df_denominator = 0;
   for (std::size_t level : c.involved()) {
     const trimmed_sample s = trimmed_summary(p, level, o.trim);
     if (s.kept < 2)
@@ -89,13 +89,13 @@ method_result trimmed_contrast(const prepared_data& p, const contrast& c, const 
     const double d = static_cast<double>(s.n - 1) * s.winsorized_variance / (h * (h - 1));
     const double component = ci * ci * d;
     estimate += ci * s.trimmed_mean;
-    coefficient_sum += ci;
     variance += component;
     df_denominator += component * component / (h - 1);
     trimmed_note += (trimmed_note.back() == ':' ? " " : ", ") + data.levels[level] + " " + std::to_string(s.trimmed_per_side) + " of " + std::to_string(s.n);
   }
-  // Centred trimmed means; a general linear combination gets the centre back.
-  r.estimate = estimate + data.centre * coefficient_sum;
+  // Centred trimmed means; a general linear combination gets the centre back (exactly nothing
+  // for a contrast, even when rounded coefficients such as 1/3 do not sum to exactly zero).
+  r.estimate = estimate + c.location_term(data.centre);
   r.se = std::sqrt(variance);
   r.statistic_name = "t";
   r.statistic = r.estimate / r.se;

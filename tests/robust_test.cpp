@@ -159,6 +159,14 @@ TEST_CASE("Yuen keeps full precision on data sharing many leading digits") {
   CHECK(r.estimate == base.estimate);
   CHECK(r.se == base.se);
   CHECK(r.p_value == base.p_value);
+  // Coefficients 1, -1/3, -1/3, -1/3 sum to about 1e-17 in binary, not 0: a contrast must not
+  // pick up centre * 1e-17 (that would move the estimate by 1e-5 here).
+  const std::vector<double> c2 = {0.2, 0.3, 0.1, 0.5, 0.4}, c3 = {0.9, 0.6, 0.7, 0.8, 1.0};
+  const contrast third{"g1 - mean(others)", {1, -1.0 / 3, -1.0 / 3, -1.0 / 3}, "g1 - (g2 + g3 + g4)/3"};
+  dataset four = make_dataset({"g1", "g2", "g3", "g4"}, {a, b, c2, c3});
+  const method_result plain = trimmed_contrast(prepare(four, o.trim), third, o);
+  four.centre = 1e12;
+  CHECK(trimmed_contrast(prepare(four, o.trim), third, o).estimate == plain.estimate);
   // A general linear combination (--allow-linear) is a location: it gains the centre back.
   analysis_options linear = o;
   linear.allow_linear = true;
