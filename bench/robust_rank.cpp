@@ -50,7 +50,11 @@ int main(int argc, char** argv) {
   const double mw = median_seconds([&] { sink += mann_whitney_contrast(p, c, o).estimate; }, 5);
   const double bm = median_seconds([&] { sink += brunner_munzel_contrast(p, c, o).statistic; }, 5);
   // The trimmed means come from the summaries, so the timing includes preparing them.
-  const double yt = median_seconds([&] { sink += trimmed_contrast(prepare(make_dataset({"a", "b"}, {a, b})), c, o).statistic; }, 5);
+  const double yt = median_seconds(
+      [&] {
+        sink += trimmed_contrast(prepare(make_dataset({"a", "b"}, {a, b})), c, o).statistic;
+      },
+      5);
   std::printf("mann-whitney+hodges-lehmann %zu %.6f\n", a.size(), mw);
   std::printf("brunner-munzel %zu %.6f\n", a.size(), bm);
   std::printf("trimmed(with-summaries) %zu %.6f\n", a.size(), yt);

@@ -89,7 +89,8 @@ namespace contrasta {
 method_result brunner_munzel_contrast(const prepared_data& p, const contrast& c, const analysis_options& o) {
   const auto [first, second] = c.two_levels();
   if (first == std::size_t(-1) || second == std::size_t(-1))
-    throw analysis_error("brunner-munzel compares two levels: give a contrast such as 'a - b' (contrast '" + c.name + "' involves other levels)");
+    throw analysis_error("brunner-munzel compares two levels: give a contrast such as 'a - b' (contrast '" + c.name +
+                         "' involves other levels)");
   const dataset& data = p.data;
   const relative_effect_test test = brunner_munzel(data.group(first), data.group(second), o.conf, o.side);
   const std::string& a = data.levels[first];
@@ -105,13 +106,16 @@ method_result brunner_munzel_contrast(const prepared_data& p, const contrast& c,
   r.p_value = test.p_value;
   r.ci_low = test.ci_low;
   r.ci_high = test.ci_high;
-  r.null_hypothesis = "the two distributions are stochastically equal: P(" + a + " < " + b + ") + P(" + a + " = " + b +
-                      ")/2 = 1/2";
+  r.null_hypothesis =
+      "the two distributions are stochastically equal: P(" + a + " < " + b + ") + P(" + a + " = " + b + ")/2 = 1/2";
   r.notes.push_back("an estimate below 1/2 means " + a + " tends to be larger; W has the sign of estimate - 1/2");
   if (!(test.se > 0))
-    r.notes.push_back("the placement variances are zero (the levels do not overlap or are constant): no t approximation; use rank");
+    r.notes.push_back(
+        "the placement variances are zero (the levels do not overlap or are constant): no t approximation; use rank");
   else if (std::min(data.n(first), data.n(second)) < 10)
-    r.notes.push_back("fewer than 10 observations in a level: the t approximation may be liberal; the rank method gives an exact permutation p-value");
+    r.notes.push_back(
+        "fewer than 10 observations in a level: the t approximation may be liberal; the rank method gives an exact "
+        "permutation p-value");
   return r;
 }
 

@@ -23,7 +23,8 @@ method_result dunn_contrast(const prepared_data& p, const contrast& c, const ana
   double estimate = 0, weight = 0;
   for (std::size_t level : c.involved()) {
     const std::size_t n = data.n(level);
-    if (n == 0) throw analysis_error("level '" + data.levels[level] + "' has no observations; Dunn's test needs at least one");
+    if (n == 0)
+      throw analysis_error("level '" + data.levels[level] + "' has no observations; Dunn's test needs at least one");
     double sum = 0;
     for (std::size_t i = data.offsets[level]; i < data.offsets[level + 1]; ++i) sum += ranks[i];
     const double ci = c.coefficients[level];
@@ -39,7 +40,8 @@ method_result dunn_contrast(const prepared_data& p, const contrast& c, const ana
   r.statistic = r.estimate / r.se;
   const int side = o.side == alternative::greater ? 1 : o.side == alternative::less ? -1 : 0;
   r.p_value = detail::t_p_value(r.statistic, std::numeric_limits<double>::infinity(), side);
-  r.null_hypothesis = "all levels have the same distribution; tested through the contrast of mean ranks (sum c_i E[mean rank_i] = 0)";
+  r.null_hypothesis =
+      "all levels have the same distribution; tested through the contrast of mean ranks (sum c_i E[mean rank_i] = 0)";
   r.notes.push_back("no interval: the standard error is the variance of the mean ranks under the null hypothesis");
   if (weight > 0 && std::isnan(r.statistic)) r.notes.push_back("all observations are tied: no test");
   return r;

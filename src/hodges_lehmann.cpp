@@ -42,16 +42,19 @@ double kth_pairwise_difference(std::span<const double> x, std::span<const double
   // Smallest double v with at least k differences <= v; that v is itself a difference.
   while (lo < hi) {
     // Unsigned width: hi - lo can exceed the signed range.
-    const auto mid = static_cast<std::int64_t>(static_cast<std::uint64_t>(lo) + (static_cast<std::uint64_t>(hi) - static_cast<std::uint64_t>(lo)) / 2);
-    if (count_at_most(x, y, from_key(mid)) >= k) hi = mid;
-    else lo = mid + 1;
+    const auto mid = static_cast<std::int64_t>(static_cast<std::uint64_t>(lo) +
+                                               (static_cast<std::uint64_t>(hi) - static_cast<std::uint64_t>(lo)) / 2);
+    if (count_at_most(x, y, from_key(mid)) >= k)
+      hi = mid;
+    else
+      lo = mid + 1;
   }
   double v = from_key(lo);
   return v == 0 ? 0.0 : v;  // no negative zero
 }
 
-shift_estimate hodges_lehmann_shift(std::span<const double> x, std::span<const double> y, double conf,
-                                    alternative side, bool exact) {
+shift_estimate hodges_lehmann_shift(std::span<const double> x, std::span<const double> y, double conf, alternative side,
+                                    bool exact) {
   const std::size_t m = x.size(), n = y.size();
   if (m == 0 || n == 0) throw analysis_error("the Hodges-Lehmann shift needs at least one observation in each level");
   std::vector<double> xs(x.begin(), x.end()), ys(y.begin(), y.end());
@@ -59,8 +62,9 @@ shift_estimate hodges_lehmann_shift(std::span<const double> x, std::span<const d
   std::sort(ys.begin(), ys.end());
   const std::size_t mn = m * n;
   shift_estimate r;
-  r.estimate = mn % 2 == 1 ? kth_pairwise_difference(xs, ys, (mn + 1) / 2)
-                           : 0.5 * (kth_pairwise_difference(xs, ys, mn / 2) + kth_pairwise_difference(xs, ys, mn / 2 + 1));
+  r.estimate = mn % 2 == 1
+                   ? kth_pairwise_difference(xs, ys, (mn + 1) / 2)
+                   : 0.5 * (kth_pairwise_difference(xs, ys, mn / 2) + kth_pairwise_difference(xs, ys, mn / 2 + 1));
 
   // Tail probability allowed below the lower end (Lehmann 1975: P(U <= k-1) for the interval
   // [D_(k), D_(mn+1-k)]).

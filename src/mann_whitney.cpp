@@ -69,12 +69,13 @@ mann_whitney_test mann_whitney(std::span<const double> x, std::span<const double
   const double ties = tie_term(pooled);
   // The statistic whose upper tail is the p-value, and the factor (as scipy: two-sided doubles
   // the upper tail of the larger U).
-  const double u_tail = side == alternative::greater ? r.u : side == alternative::less ? u_other : std::max(r.u, u_other);
+  const double u_tail = side == alternative::greater ? r.u
+                        : side == alternative::less  ? u_other
+                                                     : std::max(r.u, u_other);
   const double factor = side == alternative::two_sided ? 2.0 : 1.0;
 
   bool use_exact = false;
-  if (ties == 0 && mode != exact_mode::never)
-    use_exact = mode == exact_mode::always || std::min(m, n) <= 8;
+  if (ties == 0 && mode != exact_mode::never) use_exact = mode == exact_mode::always || std::min(m, n) <= 8;
   std::vector<double> cdf;
   if (use_exact) {
     cdf = mann_whitney_null_cdf(m, n);
@@ -104,7 +105,8 @@ namespace contrasta {
 method_result mann_whitney_contrast(const prepared_data& p, const contrast& c, const analysis_options& o) {
   const auto [first, second] = c.two_levels();
   if (first == std::size_t(-1) || second == std::size_t(-1))
-    throw analysis_error("mann-whitney compares two levels: give a contrast such as 'a - b' (contrast '" + c.name + "' involves other levels)");
+    throw analysis_error("mann-whitney compares two levels: give a contrast such as 'a - b' (contrast '" + c.name +
+                         "' involves other levels)");
   const dataset& data = p.data;
   const std::span<const double> x = data.group(first), y = data.group(second);
   const mann_whitney_test test = mann_whitney(x, y, o.side, o.exact);
@@ -139,8 +141,9 @@ method_result mann_whitney_contrast(const prepared_data& p, const contrast& c, c
   if (shift.order == 0) {
     r.notes.push_back("too few observations to bound the shift at this confidence (Lehmann 1975 order statistics)");
   } else {
-    std::snprintf(buffer, sizeof buffer, "shift interval from the pairwise differences of order %zu, achieved confidence %.4f%s",
-                  shift.order, shift.coverage, test.exact ? "" : " (normal approximation)");
+    std::snprintf(buffer, sizeof buffer,
+                  "shift interval from the pairwise differences of order %zu, achieved confidence %.4f%s", shift.order,
+                  shift.coverage, test.exact ? "" : " (normal approximation)");
     r.notes.push_back(buffer);
   }
   r.notes.push_back("the shift interval assumes the two distributions differ only by a shift");

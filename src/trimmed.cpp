@@ -91,7 +91,8 @@ method_result trimmed_contrast(const prepared_data& p, const contrast& c, const 
     estimate += ci * s.trimmed_mean;
     variance += component;
     df_denominator += component * component / (h - 1);
-    trimmed_note += (trimmed_note.back() == ':' ? " " : ", ") + data.levels[level] + " " + std::to_string(s.trimmed_per_side) + " of " + std::to_string(s.n);
+    trimmed_note += (trimmed_note.back() == ':' ? " " : ", ") + data.levels[level] + " " +
+                    std::to_string(s.trimmed_per_side) + " of " + std::to_string(s.n);
   }
   // Centred trimmed means; a general linear combination gets the centre back (exactly nothing
   // for a contrast, even when rounded coefficients such as 1/3 do not sum to exactly zero).
@@ -104,8 +105,8 @@ method_result trimmed_contrast(const prepared_data& p, const contrast& c, const 
   char trim_text[32];
   std::snprintf(trim_text, sizeof trim_text, "%g", o.trim);
   r.estimand = std::string("contrast of ") + trim_text + "-trimmed means";
-  r.null_hypothesis = std::string("the contrast of the population ") + trim_text +
-                      "-trimmed means is zero: sum c_i mu_t,i = 0";
+  r.null_hypothesis =
+      std::string("the contrast of the population ") + trim_text + "-trimmed means is zero: sum c_i mu_t,i = 0";
   r.notes.push_back(trimmed_note);
   complete_t_result(r, df, o);
   return r;

@@ -1,6 +1,8 @@
 // Rank methods against outside references: scipy.stats (mannwhitneyu, brunnermunzel, rankdata,
 // norm, permutation_test) through tests/reference/rank_fixtures.py, a brute-force median of
 // pairwise differences, published examples and tables (sources beside each check).
+#include "contrasta/rank.hpp"
+
 #include <doctest/doctest.h>
 
 #include <algorithm>
@@ -10,7 +12,6 @@
 #include <vector>
 
 #include "contrasta/error.hpp"
-#include "contrasta/rank.hpp"
 #include "fixture.hpp"
 
 using namespace contrasta;
@@ -70,7 +71,7 @@ TEST_CASE("exact null distribution of U") {
     CHECK_MESSAGE(u == critical, "n = " << n);
   }
   // Counting is exact in 128 bits only while C(m+n, m) stays below about 2^124.
-  CHECK(mann_whitney_null_cdf(70, 70).empty());  // log2 C(140, 70) is about 136
+  CHECK(mann_whitney_null_cdf(70, 70).empty());         // log2 C(140, 70) is about 136
   CHECK(mann_whitney_null_cdf(60, 60).size() == 3601);  // log2 C(120, 60) is about 116
   CHECK(mann_whitney_null_cdf(8, 100000).size() == 800001);
 }
@@ -139,7 +140,8 @@ TEST_CASE("Brunner-Munzel against scipy.stats.brunnermunzel") {
   CHECK(fixture::relative_error(doc.p_value, 0.0057862086661515377) <= 1e-9);  // scipy's p: 2 min(cdf, sf)
 
   worst_error ws{"Brunner-Munzel W vs scipy"}, wd{"Brunner-Munzel df vs scipy formula"},
-      wp{"Brunner-Munzel p vs 2 t.sf(|W|, df) from scipy's W, df"}, wc{"Brunner-Munzel estimate/se/CI vs brute force + refined t quantile"};
+      wp{"Brunner-Munzel p vs 2 t.sf(|W|, df) from scipy's W, df"},
+      wc{"Brunner-Munzel estimate/se/CI vs brute force + refined t quantile"};
   for (const auto& c : fixtures()["brunner_munzel"].arr()) {
     const std::vector<double> x = c["x"].numbers(), y = c["y"].numbers();
     const auto r = brunner_munzel(x, y, c["conf"].num(), side_of(c["alternative"].str()));
@@ -149,10 +151,11 @@ TEST_CASE("Brunner-Munzel against scipy.stats.brunnermunzel") {
       CHECK(r.statistic == c["statistic"].num());
       continue;
     }
-    for (auto [got, want, track] : {std::tuple{r.statistic, c["statistic"].num(), &ws}, std::tuple{r.df, c["df"].num(), &wd},
-                                    std::tuple{r.p_value, c["p"].num(), &wp}, std::tuple{r.estimate, c["estimate"].num(), &wc},
-                                    std::tuple{r.se, c["se"].num(), &wc}, std::tuple{r.ci_low, c["low"].num(), &wc},
-                                    std::tuple{r.ci_high, c["high"].num(), &wc}}) {
+    for (auto [got, want, track] :
+         {std::tuple{r.statistic, c["statistic"].num(), &ws}, std::tuple{r.df, c["df"].num(), &wd},
+          std::tuple{r.p_value, c["p"].num(), &wp}, std::tuple{r.estimate, c["estimate"].num(), &wc},
+          std::tuple{r.se, c["se"].num(), &wc}, std::tuple{r.ci_low, c["low"].num(), &wc},
+          std::tuple{r.ci_high, c["high"].num(), &wc}}) {
       track->add(got, want);
       CHECK_MESSAGE(fixture::relative_error(got, want, 1e-300) <= tolerance, got << " vs " << want);
     }

@@ -2,6 +2,8 @@
 // scipy.stats.trim_mean, scipy.stats.mstats.winsorize + var(ddof=1), scipy.stats.ttest_ind(trim=,
 // equal_var=False) for pairs, and the Yuen (1974) formula written out over those scipy pieces for
 // general contrasts. Sources beside each check.
+#include "contrasta/robust.hpp"
+
 #include <doctest/doctest.h>
 
 #include <algorithm>
@@ -10,7 +12,6 @@
 #include <vector>
 
 #include "contrasta/error.hpp"
-#include "contrasta/robust.hpp"
 #include "fixture.hpp"
 
 using namespace contrasta;
@@ -68,7 +69,8 @@ TEST_CASE("observations trimmed per side: floor(gamma n) of the decimal gamma") 
 }
 
 TEST_CASE("trimmed means and winsorized variances against scipy") {
-  worst_error wm{"trimmed mean vs scipy.stats.trim_mean"}, wv{"winsorized variance vs scipy.stats.mstats.winsorize + var(ddof=1)"};
+  worst_error wm{"trimmed mean vs scipy.stats.trim_mean"},
+      wv{"winsorized variance vs scipy.stats.mstats.winsorize + var(ddof=1)"};
   for (const auto& c : fixtures()["samples"].arr()) {
     const std::vector<double> x = c["x"].numbers();
     const trimmed_sample s = trim_sample(x, c["trim"].num());
@@ -99,7 +101,7 @@ TEST_CASE("the group summaries carry the same trimmed means and winsorized varia
 namespace {
 void check_yuen(const fixture::value& c, const method_result& r, worst_error& w) {
   const std::vector<std::pair<double, const char*>> fields = {
-      {r.estimate, "estimate"}, {r.se, "se"}, {r.statistic, "statistic"}, {*r.df, "df"},
+      {r.estimate, "estimate"}, {r.se, "se"},      {r.statistic, "statistic"}, {*r.df, "df"},
       {r.p_value, "p"},         {r.ci_low, "low"}, {r.ci_high, "high"}};
   for (auto [got, key] : fields) {
     const double want = c[key].num();

@@ -47,27 +47,26 @@ double tie_term(std::span<const double> x);
 std::vector<double> mann_whitney_null_cdf(std::size_t m, std::size_t n);
 
 struct mann_whitney_test {
-  double u = 0;          // U of the first sample: #(x > y) + #(x = y)/2
+  double u = 0;  // U of the first sample: #(x > y) + #(x = y)/2
   double p_value = 0;
-  bool exact = false;    // exact null distribution (no ties); else normal approximation
-  double z = 0;          // the continuity- and tie-corrected z of the normal approximation
+  bool exact = false;  // exact null distribution (no ties); else normal approximation
+  double z = 0;        // the continuity- and tie-corrected z of the normal approximation
 };
 
 // Mann-Whitney test of x against y. side: greater = x tends to be larger. With mode automatic
 // the exact distribution is used when min(m, n) <= 8 and there are no ties (the rule of
 // scipy.stats.mannwhitneyu(method="auto")); always = exact whenever there are no ties;
 // never = normal approximation with tie and continuity corrections.
-mann_whitney_test mann_whitney(std::span<const double> x, std::span<const double> y,
-                               alternative side, exact_mode mode = exact_mode::automatic);
+mann_whitney_test mann_whitney(std::span<const double> x, std::span<const double> y, alternative side,
+                               exact_mode mode = exact_mode::automatic);
 
 // The k-th smallest (1-based) of the m n differences x_i - y_j, without forming them:
 // bisection over the doubles with a two-pointer count, O((m + n) log) per call.
 // x and y must be sorted ascending.
-double kth_pairwise_difference(std::span<const double> x_sorted, std::span<const double> y_sorted,
-                               std::size_t k);
+double kth_pairwise_difference(std::span<const double> x_sorted, std::span<const double> y_sorted, std::size_t k);
 
 struct shift_estimate {
-  double estimate = 0;   // median of the pairwise differences x_i - y_j
+  double estimate = 0;       // median of the pairwise differences x_i - y_j
   double low = 0, high = 0;  // interval ends (-inf/+inf where the data cannot bound it)
   std::size_t order = 0;     // k: the interval is [D_(k), D_(mn+1-k)] (one end for one-sided)
   double coverage = 0;       // the achieved confidence (exact) or its normal approximation
@@ -77,11 +76,11 @@ struct shift_estimate {
 // interval of Lehmann (1975): order statistics D_(k), D_(mn+1-k) of the pairwise differences,
 // k the largest with P(U <= k-1) <= (1-conf)/2 under the exact null distribution of U (when
 // `exact`), else from the normal approximation k = floor(mn/2 + 1/2 - z sqrt(mn(m+n+1)/12)).
-shift_estimate hodges_lehmann_shift(std::span<const double> x, std::span<const double> y, double conf,
-                                    alternative side, bool exact);
+shift_estimate hodges_lehmann_shift(std::span<const double> x, std::span<const double> y, double conf, alternative side,
+                                    bool exact);
 
 struct relative_effect_test {
-  double estimate = 0;   // P(X<Y) + P(X=Y)/2 for X from x, Y from y
+  double estimate = 0;  // P(X<Y) + P(X=Y)/2 for X from x, Y from y
   double se = 0;
   double statistic = 0;  // Brunner-Munzel W = (estimate - 1/2)/se (scipy's sign)
   double df = 0;
