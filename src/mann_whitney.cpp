@@ -3,6 +3,7 @@
 // the Hodges-Lehmann shift.
 #include <algorithm>
 #include <cmath>
+#include <cstdio>
 #include <string>
 
 #include "contrasta/error.hpp"
@@ -98,10 +99,6 @@ mann_whitney_test mann_whitney(std::span<const double> x, std::span<const double
   return r;
 }
 
-}  // namespace contrasta
-
-namespace contrasta {
-
 method_result mann_whitney_contrast(const prepared_data& p, const contrast& c, const analysis_options& o) {
   const auto [first, second] = c.two_levels();
   if (first == std::size_t(-1) || second == std::size_t(-1))
@@ -117,19 +114,19 @@ method_result mann_whitney_contrast(const prepared_data& p, const contrast& c, c
 
   method_result r;
   r.method = "mann-whitney";
+  char buffer[160];
+  std::snprintf(buffer, sizeof buffer, " times %g", scale);
   r.estimand = "Hodges-Lehmann shift " + a + " - " + b + " (median of the pairwise differences)" +
-               (scale != 1 ? " times " + std::to_string(scale) : std::string());
+               (scale != 1 ? std::string(buffer) : std::string());
   r.estimate = scale * shift.estimate;
   r.ci_low = scale * shift.low;
   r.ci_high = scale * shift.high;
-  if (scale < 0) std::swap(r.ci_low, r.ci_high);
   r.statistic_name = "U";
   r.statistic = test.u;
   r.p_value = test.p_value;
   r.exact = test.exact;
   r.null_hypothesis = "the distributions of " + a + " and " + b + " are identical (the test is sensitive to P(" + a +
                       " > " + b + ") differing from P(" + a + " < " + b + "))";
-  char buffer[160];
   if (test.exact) {
     r.notes.push_back("exact null distribution of U (no ties)");
   } else {

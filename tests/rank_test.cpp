@@ -276,3 +276,11 @@ TEST_CASE("rank contrast: exact permutation p against scipy.stats.permutation_te
     }
   }
 }
+
+TEST_CASE("mann-whitney names a scaled shift in plain numbers") {
+  const prepared_data p = prepared({{1, 2, 3}, {4, 5, 6}});
+  const method_result r = mann_whitney_contrast(p, contrast{"2(g1 - g2)", {2, -2}, "2*g1 - 2*g2"}, analysis_options{});
+  CHECK(r.estimand.find("times 2") != std::string::npos);
+  CHECK(r.estimand.find("2.000") == std::string::npos);
+  CHECK(r.estimate == -6);  // 2 x the median of the 9 differences (-3 by hand)
+}
