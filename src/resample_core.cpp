@@ -7,6 +7,7 @@
 
 #include <tbb/blocked_range.h>
 #include <tbb/parallel_for.h>
+#include <tbb/info.h>
 #include <tbb/task_arena.h>
 
 #include "contrasta/error.hpp"
@@ -67,8 +68,11 @@ contrast_terms make_terms(const contrast& c, const resampling_pool& pool) {
 }
 
 int thread_count(const analysis_options& o) {
-  if (o.threads == 0) return tbb::this_task_arena::max_concurrency();
-  return static_cast<int>(std::min<unsigned>(o.threads, 1024));
+  // More threads than the hardware offers cannot run at once (oneTBB would refuse the extra
+  // workers with a warning on standard error); results do not depend on the count anyway.
+  const int hardware = tbb::info::default_concurrency();
+  if (o.threads == 0) return hardware;
+  return std::min(static_cast<int>(std::min<unsigned>(o.threads, 1024)), hardware);
 }
 
 void run_blocks(std::uint64_t blocks, const analysis_options& o, const std::function<void(std::uint64_t)>& body) {
