@@ -22,8 +22,6 @@ namespace detail {
 namespace {
 
 constexpr std::uint64_t resamples_per_block = 4096;
-// Bootstrap blocks draw from streams disjoint from the permutation blocks of the same seed.
-constexpr std::uint64_t bootstrap_stream_offset = 1ULL << 62;
 
 resampling_pool make_bootstrap_pool(const prepared_data& p, std::span<const std::size_t> levels) {
   resampling_pool pool;
@@ -53,7 +51,7 @@ class bootstrap_walker {
   }
 
   template <class Consume>
-  void run(pcg32& rng, std::uint64_t count, Consume&& consume) {
+  void run(block_random& rng, std::uint64_t count, Consume&& consume) {
     const observation* data = pool_.data.data();
     for (std::uint64_t r = 0; r < count; ++r) {
       draw_bounded(rng, ranges_.data(), plan_, draws_.data());
@@ -93,7 +91,7 @@ template <class Body>
 void for_each_bootstrap_block(std::uint64_t resamples, const analysis_options& o, Body&& body) {
   const std::uint64_t blocks = (resamples + resamples_per_block - 1) / resamples_per_block;
   run_blocks(blocks, o, [&](std::uint64_t b) {
-    pcg32 rng = block_stream(o.seed, bootstrap_stream_offset + b);
+    block_random rng(o.seed, b, 1);
     const std::uint64_t first = b * resamples_per_block;
     body(rng, first, std::min(resamples_per_block, resamples - first), b);
   });
@@ -149,7 +147,7 @@ method_result bootstrap_contrast(const prepared_data& p, const contrast& c, cons
   else deviations.resize(m);
   std::vector<std::uint64_t> block_hits((m + resamples_per_block - 1) / resamples_per_block);
   std::vector<double> block_sum(block_hits.size()), block_square(block_hits.size());
-  for_each_bootstrap_block(m, o, [&](pcg32& rng, std::uint64_t first, std::uint64_t count, std::uint64_t b) {
+  for_each_bootstrap_block(m, o, [&](block_random& rng, std::uint64_t first, std::uint64_t count, std::uint64_t b) {
     bootstrap_walker walker(pool);
     std::uint64_t hits = 0, r = first;
     double s = 0, q = 0;
@@ -212,7 +210,7 @@ method_result bootstrap_contrast(const prepared_data& p, const contrast& c, cons
   r.estimand = std::abs(coefficient_sum) > 1e-9 ? "linear combination of means" : "mean contrast";
   r.estimate = estimate;
   r.se = se;
-  r.statistic_name = "t";
+  r.statistic_name = std::string("t");  // (a literal here trips GCC 12 bug 105651, -Wrestrict)
   r.statistic = t_observed;
   r.p_value = phipson_smyth_p(hits, m);
   r.p_interval = clopper_pearson(hits, m, 0.99);
@@ -230,7 +228,7 @@ method_result bootstrap_contrast(const prepared_data& p, const contrast& c, cons
   std::ostringstream test_note;
   test_note.precision(6);
   test_note << "test: bootstrap-t, p = (b+1)/(m+1) with b = " << hits << " resamples where (psi*-psi)/SE* is at least "
-            << "as extreme as psi/SE (Hall & Wilson 1991); bootstrap standard error of the estimate " << bootstrap_se;
+            << "as extreme as psi/SE; bootstrap standard error of the estimate " << bootstrap_se;
   r.notes.push_back(test_note.str());
   return r;
 }
@@ -261,7 +259,7 @@ joint_resampling joint_bootstrap_statistics(const prepared_data& p, std::span<co
     }
     out.observed.push_back(studentized_value(psi + p.data.centre * coefficient_sum, se2));
   }
-  for_each_bootstrap_block(out.resamples, o, [&](pcg32& rng, std::uint64_t first, std::uint64_t count, std::uint64_t) {
+  for_each_bootstrap_block(out.resamples, o, [&](block_random& rng, std::uint64_t first, std::uint64_t count, std::uint64_t) {
     bootstrap_walker walker(pool);
     double* row = out.statistics.data() + first * m;
     walker.run(rng, count, [&](const double* ss, const double* qq) {

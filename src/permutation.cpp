@@ -154,6 +154,31 @@ void for_each_exact_block(const resampling_pool& pool, const analysis_options& o
   });
 }
 
+// The two-group walk with everything in registers: the hot loop of exact two-group tests
+// (quality.md P2). consume(s, q) gets the sum and sum of squares of group 0; group 1's follow
+// from the totals.
+template <class Consume>
+void walk_two_groups(const resampling_pool& pool, std::uint64_t first, std::uint64_t count, Consume&& consume) {
+  const auto n = static_cast<std::uint32_t>(pool.size());
+  const std::size_t t = pool.n(0);
+  std::vector<std::uint32_t> c(t + 1);
+  revolving_door_unrank(first, n, std::span(c.data(), t));
+  c[t] = n;
+  const observation* data = pool.data.data();
+  double s = 0, q = 0;
+  for (std::size_t i = 0; i < t; ++i) {
+    s += data[c[i]].value;
+    q += data[c[i]].square;
+  }
+  for (std::uint64_t i = 0;; ++i) {
+    consume(s, q);
+    if (i + 1 == count) break;
+    const door_swap swap = revolving_door_next(c);
+    s += data[swap.in].value - data[swap.out].value;
+    q += data[swap.in].square - data[swap.out].square;
+  }
+}
+
 // ---- Monte Carlo reassignment ---------------------------------------------------------------
 
 // Random reassignments by a partial Fisher-Yates shuffle (Durstenfeld 1964) of the block's own
@@ -173,7 +198,7 @@ class monte_carlo_walker {
   }
 
   template <class Consume>
-  void run(pcg32& rng, std::uint64_t count, Consume&& consume) {
+  void run(block_random& rng, std::uint64_t count, Consume&& consume) {
     const std::size_t last = pool_.groups() - 1;
     for (std::uint64_t r = 0; r < count; ++r) {
       draw_bounded(rng, ranges_.data(), plan_, draws_.data());
@@ -213,7 +238,7 @@ template <class Body>
 void for_each_monte_carlo_block(std::uint64_t resamples, const analysis_options& o, Body&& body) {
   const std::uint64_t blocks = (resamples + resamples_per_block - 1) / resamples_per_block;
   run_blocks(blocks, o, [&](std::uint64_t b) {
-    pcg32 rng = block_stream(o.seed, b);
+    block_random rng(o.seed, b, 0);
     const std::uint64_t first = b * resamples_per_block;
     body(rng, first, std::min(resamples_per_block, resamples - first), b);
   });
@@ -251,8 +276,10 @@ void require_contrast(const contrast& c, const prepared_data& p, bool studentize
 bool choose_exact(std::uint64_t arrangements, const analysis_options& o, std::uint64_t limit) {
   switch (o.exact) {
     case exact_mode::always:
-      if (arrangements == saturated)
-        throw analysis_error("more than 18446744073709551615 reassignments: too many to enumerate; use --exact auto");
+      // About 10 ns per reassignment: beyond 1e12 a complete enumeration takes hours.
+      if (arrangements > 1'000'000'000'000ULL)
+        throw analysis_error("this contrast has " + (arrangements == saturated ? std::string("more than 1.8e19") : std::to_string(arrangements)) +
+                             " reassignments, too many to enumerate (more than 1e12); use --exact auto for a Monte Carlo test");
       return true;
     case exact_mode::never: return false;
     default: return arrangements <= limit;
@@ -317,24 +344,37 @@ method_result permutation_contrast(const prepared_data& p, const contrast& c, co
     exact_walker probe(pool);
     const std::uint64_t per_block = std::max<std::uint64_t>(1, arrangements_per_block / probe.inner_count());
     block_hits.resize((probe.outer_count() + per_block - 1) / per_block);
-    if (pool.groups() == 2 && terms.groups.size() == 2) {
+    if (pool.groups() == 2) {
       // The hot loop of two-group exact tests, with the contrast's factors in registers.
       const double w0 = terms.mean_weight[0], w1 = terms.mean_weight[1];
       const double i0 = terms.inverse_n[0], i1 = terms.inverse_n[1];
       const double v0 = terms.variance_weight[0], v1 = terms.variance_weight[1];
-      for_each_exact_block(pool, o, [&](exact_walker& walker, std::uint64_t first, std::uint64_t count, std::uint64_t b) {
+      const double total_sum = pool.total, total_square = pool.total_square;
+      // With equal group sizes and c_0 = -c_1, the complement of a group-0 subset swaps the
+      // groups and negates the statistic; two-sided, both count alike. In revolving-door order
+      // the first C(N-1, n_0) subsets are exactly those without the last observation, one of
+      // each complementary pair: enumerate them and count twice.
+      const bool mirror = o.side == alternative::two_sided && pool.n(0) == pool.n(1) && w0 == -w1;
+      const std::uint64_t outer = mirror ? binomial(pool.size() - 1, pool.n(0)) : arrangements;
+      const std::uint64_t blocks = (outer + arrangements_per_block - 1) / arrangements_per_block;
+      std::vector<std::uint64_t> two_hits(blocks);
+      run_blocks(blocks, o, [&](std::uint64_t b) {
+        const std::uint64_t first = b * arrangements_per_block;
         std::uint64_t local = 0;
-        walker.walk(first, count, [&](const double* ss, const double* qq) {
-          const double d = w0 * ss[0] + w1 * ss[1];
-          if (fast) {
-            const double v = v0 * std::max(0.0, qq[0] - ss[0] * ss[0] * i0) + v1 * std::max(0.0, qq[1] - ss[1] * ss[1] * i1);
-            local += v > 0 ? d * d >= bar_squared * v : extreme(studentized_value(d, v));
+        walk_two_groups(pool, first, std::min(arrangements_per_block, outer - first), [&](double s0, double q0) {
+          const double s1 = total_sum - s0, q1 = total_square - q0;
+          const double d = w0 * s0 + w1 * s1;
+          const double v = v0 * std::max(0.0, q0 - s0 * s0 * i0) + v1 * std::max(0.0, q1 - s1 * s1 * i1);
+          if (fast && v > 0) {
+            local += d * d >= bar_squared * v;
           } else {
-            local += is_extreme(ss, qq);
+            local += extreme(student ? studentized_value(d, v) : d);
           }
         });
-        block_hits[b] = local;
+        two_hits[b] = local;
       });
+      for (std::uint64_t h : two_hits) hits += h;
+      if (mirror) hits *= 2;
     } else {
       for_each_exact_block(pool, o, [&](exact_walker& walker, std::uint64_t first, std::uint64_t count, std::uint64_t b) {
         std::uint64_t local = 0;
@@ -351,7 +391,7 @@ method_result permutation_contrast(const prepared_data& p, const contrast& c, co
     total = o.resamples;
     if (total == 0) throw usage_error("the number of resamples must be at least 1");
     std::vector<std::uint64_t> block_hits((total + resamples_per_block - 1) / resamples_per_block);
-    for_each_monte_carlo_block(total, o, [&](pcg32& rng, std::uint64_t, std::uint64_t count, std::uint64_t b) {
+    for_each_monte_carlo_block(total, o, [&](block_random& rng, std::uint64_t, std::uint64_t count, std::uint64_t b) {
       monte_carlo_walker walker(pool);
       std::uint64_t local = 0;
       walker.run(rng, count, [&](const double* ss, const double* qq) { local += is_extreme(ss, qq); });
@@ -387,17 +427,17 @@ method_result permutation_contrast(const prepared_data& p, const contrast& c, co
   r.null_hypothesis = "the groups " + who + " have the same distribution";
   if (student) r.null_hypothesis += " (asymptotically: the mean contrast is zero)";
   std::ostringstream note;
+  const char* statistic_words = student ? "Welch t" : "raw contrast";
   if (exact) {
-    note << "exact: all " << total << " reassignments of the observations of " << who << " enumerated";
+    note << "exact: all " << total << " reassignments of the observations of " << who << " enumerated ("
+         << statistic_words << " recomputed on each)";
   } else {
-    note << "Monte Carlo: " << total << " random reassignments (seed " << o.seed << "), p = (b+1)/(m+1) with b = "
-         << hits << "; p_interval is the 99% Clopper-Pearson interval of the exact permutation p";
+    note << "Monte Carlo: " << total << " random reassignments (seed " << o.seed << ", " << statistic_words
+         << " recomputed on each), p = (b+1)/(m+1) with b = " << hits;
   }
   r.notes.push_back(note.str());
-  r.notes.push_back(student ? "statistic: Welch t of the contrast, recomputed on every reassignment"
-                            : "statistic: the raw contrast psi, recomputed on every reassignment");
-  r.notes.push_back("no confidence interval: a permutation test of equal distributions gives none without a shift "
-                    "model; read the welch or bootstrap interval");
+  r.notes.push_back("no confidence interval: a test of equal distributions gives none without a shift model; "
+                    "read the welch or bootstrap interval");
   return r;
 }
 
@@ -453,7 +493,7 @@ joint_resampling joint_permutation_statistics(const prepared_data& p, std::span<
       });
     });
   } else {
-    for_each_monte_carlo_block(out.resamples, o, [&](pcg32& rng, std::uint64_t first, std::uint64_t count, std::uint64_t) {
+    for_each_monte_carlo_block(out.resamples, o, [&](block_random& rng, std::uint64_t first, std::uint64_t count, std::uint64_t) {
       monte_carlo_walker walker(pool);
       double* row = out.statistics.data() + first * m;
       walker.run(rng, count, [&](const double* ss, const double* qq) {

@@ -100,7 +100,7 @@ def live_cases(seed):
     out = []
     for i in range(4):
         k = int(rng.integers(2, 4))
-        sizes = [int(x) for x in rng.integers(3, 7 if k == 3 else 9, k)]
+        sizes = [int(x) for x in rng.integers(3, 6 if k == 3 else 9, k)]
         groups = [np.round(rng.normal(rng.normal(0, 1), rng.uniform(0.5, 3), n), int(rng.integers(0, 3)))
                   for n in sizes]
         coefficients = [1.0, -1.0] if k == 2 else [1.0, -0.5, -0.5]
