@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <atomic>
+#include <chrono>
 #include <limits>
 #include <mutex>
 
@@ -80,7 +81,11 @@ void run_blocks(std::uint64_t blocks, const analysis_options& o, const std::func
   std::atomic<std::uint64_t> done{0};
   std::mutex progress_mutex;
   std::uint64_t reported = 0;
+  bool reporting = false;
   const std::uint64_t step = std::max<std::uint64_t>(1, blocks / 200);
+  // Progress only for runs that last: nothing before the first second (quality.md: a
+  // progress line for long runs only).
+  const auto start = std::chrono::steady_clock::now();
   auto one = [&](std::uint64_t b) {
     if (stopped.load(std::memory_order_relaxed)) return;
     if (o.cancel && o.cancel->load(std::memory_order_relaxed)) {
@@ -89,9 +94,10 @@ void run_blocks(std::uint64_t blocks, const analysis_options& o, const std::func
     }
     body(b);
     const std::uint64_t finished = ++done;
-    if (o.progress && (finished - reported >= step || finished == blocks)) {
+    if (o.progress && finished - reported >= step && finished < blocks) {
       std::lock_guard lock(progress_mutex);
-      if (finished > reported) {
+      if (finished > reported && (reporting || std::chrono::steady_clock::now() - start > std::chrono::seconds(1))) {
+        reporting = true;
         reported = finished;
         o.progress(static_cast<double>(finished) / static_cast<double>(blocks));
       }
@@ -108,6 +114,7 @@ void run_blocks(std::uint64_t blocks, const analysis_options& o, const std::func
       });
     });
   }
+  if (reporting) o.progress(1.0);  // lets the printer clear its line
   if (stopped) throw analysis_error("resampling cancelled before it finished; no result was produced");
 }
 

@@ -99,7 +99,8 @@ int thread_count(const analysis_options& o);
 
 // Runs body(block) for block = 0..blocks-1 on the options' threads. Blocks are the unit of
 // reproducibility (each draws from its own stream); the caller combines their results in block
-// order. Reports progress through o.progress (serialised, at most about 200 calls) and, when
+// order. Reports progress through o.progress (serialised, at most about 200 calls, and only
+// once the run has lasted a second, then 1.0 at the end) and, when
 // o.cancel is set, stops early and throws analysis_error.
 void run_blocks(std::uint64_t blocks, const analysis_options& o, const std::function<void(std::uint64_t)>& body);
 

@@ -314,6 +314,12 @@ TEST_CASE("permutation edge cases") {
   CHECK_THROWS_AS(permutation_contrast(tiny, make_contrast({1, -1}), o), analysis_error);
   o.statistic = permutation_statistic::raw;
   CHECK(permutation_contrast(tiny, make_contrast({1, -1}), o).p_value == doctest::Approx(0.25));  // 1 of C(4,1)
+  // a run shorter than a second reports no progress (quality.md: progress for long runs only)
+  int progress_calls = 0;
+  o.progress = [&](double) { ++progress_calls; };
+  permutation_contrast(split, make_contrast({1, -1}), o);
+  CHECK(progress_calls == 0);
+  o.progress = {};
   // cancellation stops the run with an analysis_error
   std::atomic<bool> cancel{true};
   o.cancel = &cancel;
