@@ -39,51 +39,75 @@ resampling_pool make_bootstrap_pool(const prepared_data& p, std::span<const std:
   return pool;
 }
 
-// Draws resamples with replacement within each group: n_g uniform indices into group g
-// (Lemire bounded integers, batched), and hands over the per-group sums of the resample.
+// Draws resamples with replacement within each group and hands over the per-group sums of each
+// resample. The indices come in batches of k draws from one 64-bit word (batched Lemire, see
+// random.hpp) and are used at once: a batch's sums are kept apart and added only once the
+// batch passes its rejection check, so a redrawn batch leaves no trace.
 class bootstrap_walker {
  public:
   explicit bootstrap_walker(const resampling_pool& pool) : pool_(pool), sum_(pool.groups()), square_(pool.groups()) {
-    for (std::size_t g = 0; g < pool.groups(); ++g)
-      for (std::size_t i = 0; i < pool.n(g); ++i) ranges_.push_back(static_cast<std::uint32_t>(pool.n(g)));
-    plan_ = plan_batches(ranges_);
-    draws_.resize(ranges_.size());
+    for (std::size_t g = 0; g < pool.groups(); ++g) {
+      group_plan plan;
+      plan.n = static_cast<std::uint32_t>(pool.n(g));
+      std::uint64_t product = 1;
+      while (plan.per_batch < pool.n(g) && static_cast<uint128>(product) * plan.n <= (1ULL << 56)) {
+        product *= plan.n;
+        ++plan.per_batch;
+      }
+      plan.full_batches = static_cast<std::uint32_t>(pool.n(g) / plan.per_batch);
+      plan.full_threshold = (0 - product) % product;
+      plan.tail = static_cast<std::uint32_t>(pool.n(g) % plan.per_batch);
+      std::uint64_t tail_product = 1;
+      for (std::uint32_t i = 0; i < plan.tail; ++i) tail_product *= plan.n;
+      plan.tail_threshold = (0 - tail_product) % tail_product;
+      plans_.push_back(plan);
+    }
   }
 
   template <class Consume>
-  void run(block_random& rng, std::uint64_t count, Consume&& consume) {
+  void run(block_random& random, std::uint64_t count, Consume&& consume) {
     const observation* data = pool_.data.data();
     for (std::uint64_t r = 0; r < count; ++r) {
-      draw_bounded(rng, ranges_.data(), plan_, draws_.data());
-      const std::uint32_t* j = draws_.data();
+      unsigned lane = 0;
       for (std::size_t g = 0; g < pool_.groups(); ++g) {
+        const group_plan& plan = plans_[g];
         const observation* group = data + pool_.offsets[g];
-        double s0 = 0, q0 = 0, s1 = 0, q1 = 0;  // two accumulators halve the add chains
-        std::size_t i = 0;
-        const std::size_t n = pool_.n(g);
-        for (; i + 1 < n; i += 2) {
-          const observation a = group[j[i]], b = group[j[i + 1]];
-          s0 += a.value;
-          q0 += a.square;
-          s1 += b.value;
-          q1 += b.square;
-        }
-        if (i < n) {
-          s0 += group[j[i]].value;
-          q0 += group[j[i]].square;
-        }
-        j += n;
-        sum_[g] = s0 + s1;
-        square_[g] = q0 + q1;
+        const std::uint64_t n = plan.n;
+        double s = 0, q = 0;
+        auto batch = [&](pcg32& rng, std::uint32_t draws, std::uint64_t threshold) {
+          for (;;) {
+            std::uint64_t low = bits64(rng);
+            double bs = 0, bq = 0;
+            for (std::uint32_t i = 0; i < draws; ++i) {
+              const uint128 wide = static_cast<uint128>(low) * n;
+              const observation& o = group[static_cast<std::size_t>(wide >> 64)];
+              low = static_cast<std::uint64_t>(wide);
+              bs += o.value;
+              bq += o.square;
+            }
+            if (low >= threshold) {
+              s += bs;
+              q += bq;
+              return;
+            }
+          }
+        };
+        for (std::uint32_t b = 0; b < plan.full_batches; ++b) batch(random.lanes[lane++ & 3], plan.per_batch, plan.full_threshold);
+        if (plan.tail) batch(random.lanes[lane++ & 3], plan.tail, plan.tail_threshold);
+        sum_[g] = s;
+        square_[g] = q;
       }
       consume(sum_.data(), square_.data());
     }
   }
 
  private:
+  struct group_plan {
+    std::uint32_t n = 0, per_batch = 0, full_batches = 0, tail = 0;
+    std::uint64_t full_threshold = 0, tail_threshold = 0;  // 2^64 mod n^per_batch, 2^64 mod n^tail
+  };
   const resampling_pool& pool_;
-  std::vector<std::uint32_t> ranges_, draws_;
-  std::vector<draw_batch> plan_;
+  std::vector<group_plan> plans_;
   std::vector<double> sum_, square_;
 };
 
