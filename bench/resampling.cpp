@@ -82,14 +82,18 @@ struct normal_source {
 
 prepared_data make(const std::vector<std::vector<double>>& groups) {
   std::vector<std::string> levels;
-  for (std::size_t i = 0; i < groups.size(); ++i) levels.push_back("g" + std::to_string(i + 1));
+  for (std::size_t i = 0; i < groups.size(); ++i) {
+    std::string name = "group ";
+    name += std::to_string(i + 1);
+    levels.push_back(name);
+  }
   return prepare(make_dataset(levels, groups));
 }
 
 contrast make_contrast(std::vector<double> c) {
   contrast out;
-  out.name = "c";
-  out.expression = "c";
+  out.name = "contrast";
+  out.expression = "contrast";
   out.coefficients = std::move(c);
   return out;
 }

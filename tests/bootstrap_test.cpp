@@ -28,8 +28,8 @@ prepared_data make_prepared(const std::vector<std::string>& levels, const std::v
 
 contrast make_contrast(std::vector<double> c) {
   contrast out;
-  out.name = "c";
-  out.expression = "c";
+  out.name = "contrast";
+  out.expression = "contrast";
   out.coefficients = std::move(c);
   return out;
 }
