@@ -25,6 +25,12 @@ double contrast::coefficient_sum() const {
   return static_cast<double>(s);
 }
 
+bool contrast::sums_to_zero() const {
+  double scale = 0;
+  for (double c : coefficients) scale += std::abs(c);
+  return std::abs(coefficient_sum()) <= 1e-9 * scale;
+}
+
 std::vector<std::size_t> contrast::involved() const {
   std::vector<std::size_t> out;
   for (std::size_t i = 0; i < coefficients.size(); ++i)
@@ -199,7 +205,7 @@ class expression_parser {
         return level(std::string(s_.substr(start, i_ - start)), start);
       }
       linear_form f = zero();
-      f.constant = d->approximate;
+      f.constant = to_double(*d);
       return f;
     }
     if (identifier_char(c)) {
@@ -286,10 +292,10 @@ contrast parse_coefficients(std::string_view text, const std::vector<std::string
     std::size_t slash = item.find('/');
     std::optional<decimal> num = parse_decimal(item.substr(0, slash));
     std::optional<decimal> den = slash == std::string::npos ? parse_decimal("1") : parse_decimal(item.substr(slash + 1));
-    if (!num || !den || den->approximate == 0)
+    if (!num || !den || to_double(*den) == 0)
       throw analysis_error("--coefficients '" + std::string(text) + "': '" + item +
                            "' is not a number; give one number (or fraction like 1/3) per level, separated by commas");
-    c.coefficients.push_back(num->approximate / den->approximate);
+    c.coefficients.push_back(to_double(*num) / to_double(*den));
     if (comma == std::string::npos) break;
     start = comma + 1;
   }
@@ -341,7 +347,7 @@ void check_contrast(const contrast& c, bool allow_linear) {
   if (scale == 0) throw analysis_error("contrast '" + c.name + "' has every coefficient zero; name at least two levels");
   if (allow_linear) return;
   double sum = c.coefficient_sum();
-  if (std::abs(sum) > 1e-9 * scale) {
+  if (!c.sums_to_zero()) {
     char buf[64];
     std::snprintf(buf, sizeof buf, "%.6g", sum);
     throw analysis_error("contrast '" + c.name + "': the coefficients sum to " + buf +
