@@ -75,6 +75,11 @@ def fixed_cases():
     out.append(case("two groups 6 vs 7", ["a", "b"], [a, b], [1, -1]))
     out.append(case("two groups 6 vs 7 greater", ["a", "b"], [a, b], [-1, 1], alternative="greater"))
     out.append(case("two groups 6 vs 7 less, raw", ["a", "b"], [a, b], [1, -1], "raw", "less"))
+    # equal sizes: contrasta walks half of the reassignments (mirror symmetry), scipy all
+    e1 = np.round(rng.normal(3, 1, 7), 2)
+    e2 = np.round(rng.normal(3.8, 2, 7), 2)
+    out.append(case("equal sizes 7 vs 7", ["e", "f"], [e1, e2], [1, -1]))
+    out.append(case("equal sizes 7 vs 7, raw", ["e", "f"], [e1, e2], [-1, 1], "raw"))
     # panel scores on a 0-10 scale: many ties
     s1 = rng.integers(3, 9, 7)
     s2 = rng.integers(4, 11, 8)
@@ -103,6 +108,9 @@ def live_cases(seed):
         sizes = [int(x) for x in rng.integers(3, 6 if k == 3 else 9, k)]
         groups = [np.round(rng.normal(rng.normal(0, 1), rng.uniform(0.5, 3), n), int(rng.integers(0, 3)))
                   for n in sizes]
+        if k == 2 and i == 0:
+            groups[1] = groups[1][:len(groups[0])] if len(groups[1]) >= len(groups[0]) else groups[1]
+            groups[0] = groups[0][:len(groups[1])]
         coefficients = [1.0, -1.0] if k == 2 else [1.0, -0.5, -0.5]
         alt = ["two-sided", "greater", "less"][i % 3]
         stat = "studentized" if i % 2 == 0 else "raw"
