@@ -41,7 +41,6 @@ class exact_walker {
     remaining_sum_[0] = pool.total;
     remaining_square_[0] = pool.total_square;
     for (std::size_t g = 0; g + 1 < groups_; ++g) subset_[g].resize(pool.n(g) + 1);
-    inner_count_ = 1;
     std::vector<std::size_t> rest(pool.sizes());
     rest.erase(rest.begin());
     inner_count_ = multinomial(rest);
@@ -340,10 +339,6 @@ method_result permutation_contrast(const prepared_data& p, const contrast& c, co
 
   std::uint64_t total = 0, hits = 0;
   if (exact) {
-    std::vector<std::uint64_t> block_hits;
-    exact_walker probe(pool);
-    const std::uint64_t per_block = std::max<std::uint64_t>(1, arrangements_per_block / probe.inner_count());
-    block_hits.resize((probe.outer_count() + per_block - 1) / per_block);
     if (pool.groups() == 2) {
       // The hot loop of two-group exact tests, with the contrast's factors in registers.
       const double w0 = terms.mean_weight[0], w1 = terms.mean_weight[1];
@@ -376,13 +371,16 @@ method_result permutation_contrast(const prepared_data& p, const contrast& c, co
       for (std::uint64_t h : two_hits) hits += h;
       if (mirror) hits *= 2;
     } else {
+      exact_walker probe(pool);
+      const std::uint64_t per_block = std::max<std::uint64_t>(1, arrangements_per_block / probe.inner_count());
+      std::vector<std::uint64_t> block_hits((probe.outer_count() + per_block - 1) / per_block);
       for_each_exact_block(pool, o, [&](exact_walker& walker, std::uint64_t first, std::uint64_t count, std::uint64_t b) {
         std::uint64_t local = 0;
         walker.walk(first, count, [&](const double* ss, const double* qq) { local += is_extreme(ss, qq); });
         block_hits[b] = local;
       });
+      for (std::uint64_t h : block_hits) hits += h;  // block order
     }
-    for (std::uint64_t h : block_hits) hits += h;
     total = arrangements;
     // The observed arrangement is one of those enumerated, so at least one counts; rounding in
     // an extremely separated design must not push the count to zero.

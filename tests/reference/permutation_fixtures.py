@@ -92,6 +92,9 @@ def fixed_cases():
     out.append(case("three groups 4,5,5 contrast 2,-1,-1", ["x", "y", "z"], [g1, g2, g3], [2, -1, -1]))
     out.append(case("three groups 4,5,5 contrast 0.5,0.5,-1 less", ["x", "y", "z"], [g1, g2, g3],
                     [0.5, 0.5, -1], alternative="less"))
+    # 16!/(6!5!5!) = 2,018,016 reassignments: contrasta splits the enumeration into two blocks
+    h = [np.round(rng.normal(m, sd, n), 2) for m, sd, n in [(1, 1, 6), (1.5, 2, 5), (0.5, 1, 5)]]
+    out.append(case("three groups 6,5,5 (several blocks)", ["h1", "h2", "h3"], h, [1, -2, 1]))
     # a contrast inside a larger file: only the two involved levels are reassigned
     f = [np.round(rng.normal(m, s, n), 1) for m, s, n in [(20, 2, 9), (23, 3, 6), (21, 1, 8), (25, 4, 6)]]
     out.append(case("b - d inside four groups", ["a", "b", "c", "d"], f, [0, 1, 0, -1]))
