@@ -113,11 +113,16 @@ int main(int argc, char** argv) {
       }
       return argv[++i];
     };
-    if (a == "--p1") p1_file = next();
-    else if (a == "--p3") p3_file = next();
-    else if (a == "--runs") runs = std::stoi(next());
-    else if (a == "--resamples") resamples = std::stoull(next());
-    else if (a == "--calibration") calibration = std::stoi(next());
+    if (a == "--p1")
+      p1_file = next();
+    else if (a == "--p3")
+      p3_file = next();
+    else if (a == "--runs")
+      runs = std::stoi(next());
+    else if (a == "--resamples")
+      resamples = std::stoull(next());
+    else if (a == "--calibration")
+      calibration = std::stoi(next());
     else {
       std::fprintf(stderr, "error: unknown option %s\n", a.c_str());
       return 2;
@@ -146,9 +151,10 @@ int main(int argc, char** argv) {
   o.threads = 2;
   const timing two = median_time(runs, [&] { p_value = permutation_contrast(d1, c1, o).p_value; });
   const double r = static_cast<double>(resamples);
-  std::printf("P1 studentized permutation, 4 x 50, %llu resamples, 2 threads: %.4f s wall (%.4f us per resample), "
-              "%.4f s cpu, p = %.6g\n",
-              static_cast<unsigned long long>(resamples), two.wall, 1e6 * two.wall / r, two.cpu, p_value);
+  std::printf(
+      "P1 studentized permutation, 4 x 50, %llu resamples, 2 threads: %.4f s wall (%.4f us per resample), "
+      "%.4f s cpu, p = %.6g\n",
+      static_cast<unsigned long long>(resamples), two.wall, 1e6 * two.wall / r, two.cpu, p_value);
   std::printf("P1-1thread: %.4f s wall (%.4f us per resample), %.4f s cpu\n", one.wall, 1e6 * one.wall / r, one.cpu);
   std::printf("P4 thread scaling (1 thread / 2 threads, wall): %.3fx\n", one.wall / two.wall);
 
@@ -188,9 +194,10 @@ int main(int argc, char** argv) {
   const timing boot = median_time(runs, [&] { bca = bootstrap_contrast(d3, make_contrast({1, -1}), bo); });
   bo.threads = 1;
   const timing boot1 = median_time(runs, [&] { bca = bootstrap_contrast(d3, make_contrast({1, -1}), bo); });
-  std::printf("P3 BCa bootstrap, 100 vs 100, 100000 resamples, 2 threads: %.4f s wall (%.4f us per resample), "
-              "%.4f s cpu, interval [%.6g, %.6g]\n",
-              boot.wall, 1e6 * boot.wall / 1e5, boot.cpu, bca.ci_low, bca.ci_high);
+  std::printf(
+      "P3 BCa bootstrap, 100 vs 100, 100000 resamples, 2 threads: %.4f s wall (%.4f us per resample), "
+      "%.4f s cpu, interval [%.6g, %.6g]\n",
+      boot.wall, 1e6 * boot.wall / 1e5, boot.cpu, bca.ci_low, bca.ci_high);
   std::printf("P3-1thread: %.4f s wall (%.4f us per resample), %.4f s cpu\n", boot1.wall, 1e6 * boot1.wall / 1e5,
               boot1.cpu);
 
@@ -214,9 +221,10 @@ int main(int argc, char** argv) {
       raw += permutation_contrast(d, make_contrast({1, -1}), co).p_value <= 0.05;
     }
     const double n = calibration;
-    std::printf("calibration n = (8, 24), SD (4, 1), %d datasets, alpha 0.05: studentized %.4f, raw %.4f "
-                "(binomial 99%% band of 0.05: +-%.4f)\n",
-                calibration, student / n, raw / n, 2.576 * std::sqrt(0.05 * 0.95 / n));
+    std::printf(
+        "calibration n = (8, 24), SD (4, 1), %d datasets, alpha 0.05: studentized %.4f, raw %.4f "
+        "(binomial 99%% band of 0.05: +-%.4f)\n",
+        calibration, student / n, raw / n, 2.576 * std::sqrt(0.05 * 0.95 / n));
   }
   return 0;
 }

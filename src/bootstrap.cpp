@@ -92,7 +92,8 @@ class bootstrap_walker {
             }
           }
         };
-        for (std::uint32_t b = 0; b < plan.full_batches; ++b) batch(random.lanes[lane++ & 3], plan.per_batch, plan.full_threshold);
+        for (std::uint32_t b = 0; b < plan.full_batches; ++b)
+          batch(random.lanes[lane++ & 3], plan.per_batch, plan.full_threshold);
         if (plan.tail) batch(random.lanes[lane++ & 3], plan.tail, plan.tail_threshold);
         sum_[g] = s;
         square_[g] = q;
@@ -136,7 +137,9 @@ void require_bootstrap_contrast(const contrast& c, const prepared_data& p) {
   if (!any) throw analysis_error("contrast '" + c.name + "' has no non-zero coefficient");
 }
 
-double normal_quantile(double prob) { return boost::math::quantile(normal(), prob); }
+double normal_quantile(double prob) {
+  return boost::math::quantile(normal(), prob);
+}
 
 }  // namespace
 }  // namespace detail
@@ -167,8 +170,10 @@ method_result bootstrap_contrast(const prepared_data& p, const contrast& c, cons
   const std::uint64_t m = o.resamples;
   std::vector<double> deviations;  // psi* - psi, for percentile and BCa
   std::vector<double> t_star;      // (psi* - psi)/SE*, for the studentized interval
-  if (keep_t) t_star.resize(m);
-  else deviations.resize(m);
+  if (keep_t)
+    t_star.resize(m);
+  else
+    deviations.resize(m);
   std::vector<std::uint64_t> block_hits((m + resamples_per_block - 1) / resamples_per_block);
   std::vector<double> block_sum(block_hits.size()), block_square(block_hits.size());
   for_each_bootstrap_block(m, o, [&](block_random& rng, std::uint64_t first, std::uint64_t count, std::uint64_t b) {
@@ -179,8 +184,10 @@ method_result bootstrap_contrast(const prepared_data& p, const contrast& c, cons
       const auto [d, v] = evaluate(terms, ss, qq);
       const double t = studentized_value(d, v);
       hits += extreme(t);
-      if (keep_t) t_star[r] = t;
-      else deviations[r] = d;
+      if (keep_t)
+        t_star[r] = t;
+      else
+        deviations[r] = d;
       s += d;
       q += d * d;
       ++r;
@@ -283,17 +290,18 @@ joint_resampling joint_bootstrap_statistics(const prepared_data& p, std::span<co
     }
     out.observed.push_back(studentized_value(psi + p.data.centre * coefficient_sum, se2));
   }
-  for_each_bootstrap_block(out.resamples, o, [&](block_random& rng, std::uint64_t first, std::uint64_t count, std::uint64_t) {
-    bootstrap_walker walker(pool);
-    double* row = out.statistics.data() + first * m;
-    walker.run(rng, count, [&](const double* ss, const double* qq) {
-      for (std::size_t j = 0; j < m; ++j) {
-        const auto [d, v] = evaluate(terms[j], ss, qq);
-        row[j] = studentized_value(d, v);
-      }
-      row += m;
-    });
-  });
+  for_each_bootstrap_block(out.resamples, o,
+                           [&](block_random& rng, std::uint64_t first, std::uint64_t count, std::uint64_t) {
+                             bootstrap_walker walker(pool);
+                             double* row = out.statistics.data() + first * m;
+                             walker.run(rng, count, [&](const double* ss, const double* qq) {
+                               for (std::size_t j = 0; j < m; ++j) {
+                                 const auto [d, v] = evaluate(terms[j], ss, qq);
+                                 row[j] = studentized_value(d, v);
+                               }
+                               row += m;
+                             });
+                           });
   return out;
 }
 

@@ -31,8 +31,7 @@ std::uint64_t multinomial(std::span<const std::size_t> sizes) {
 
 std::uint64_t revolving_door_rank(std::span<const std::uint32_t> subset) {
   std::uint64_t rank = 0;
-  for (std::size_t i = 0; i < subset.size(); ++i)
-    rank = binomial(subset[i] + 1ULL, i + 1) - 1 - rank;
+  for (std::size_t i = 0; i < subset.size(); ++i) rank = binomial(subset[i] + 1ULL, i + 1) - 1 - rank;
   return rank;
 }
 

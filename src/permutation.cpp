@@ -34,8 +34,14 @@ constexpr std::uint64_t resamples_per_block = 4096;
 class exact_walker {
  public:
   explicit exact_walker(const resampling_pool& pool)
-      : pool_(pool), groups_(pool.groups()), remaining_(groups_), subset_(groups_), sum_(groups_), square_(groups_),
-        remaining_sum_(groups_), remaining_square_(groups_) {
+      : pool_(pool),
+        groups_(pool.groups()),
+        remaining_(groups_),
+        subset_(groups_),
+        sum_(groups_),
+        square_(groups_),
+        remaining_sum_(groups_),
+        remaining_square_(groups_) {
     remaining_[0].resize(pool.size());
     for (std::uint32_t i = 0; i < pool.size(); ++i) remaining_[0][i] = i;
     remaining_sum_[0] = pool.total;
@@ -267,8 +273,10 @@ void require_contrast(const contrast& c, const prepared_data& p, bool studentize
       throw analysis_error("contrast '" + c.name + "': level '" + p.data.levels[i] +
                            "' has no observations; drop it from the contrast");
     if (studentized && n < 2)
-      throw analysis_error("contrast '" + c.name + "': the studentized permutation statistic needs at least two "
-                           "observations in level '" + p.data.levels[i] + "'; use --statistic raw");
+      throw analysis_error("contrast '" + c.name +
+                           "': the studentized permutation statistic needs at least two "
+                           "observations in level '" +
+                           p.data.levels[i] + "'; use --statistic raw");
   }
 }
 
@@ -277,11 +285,15 @@ bool choose_exact(std::uint64_t arrangements, const analysis_options& o, std::ui
     case exact_mode::always:
       // About 10 ns per reassignment: beyond 1e12 a complete enumeration takes hours.
       if (arrangements > 1'000'000'000'000ULL)
-        throw analysis_error("this contrast has " + (arrangements == saturated ? std::string("more than 1.8e19") : std::to_string(arrangements)) +
-                             " reassignments, too many to enumerate (more than 1e12); use --exact auto for a Monte Carlo test");
+        throw analysis_error(
+            "this contrast has " +
+            (arrangements == saturated ? std::string("more than 1.8e19") : std::to_string(arrangements)) +
+            " reassignments, too many to enumerate (more than 1e12); use --exact auto for a Monte Carlo test");
       return true;
-    case exact_mode::never: return false;
-    default: return arrangements <= limit;
+    case exact_mode::never:
+      return false;
+    default:
+      return arrangements <= limit;
   }
 }
 
@@ -303,7 +315,9 @@ std::string level_list(const prepared_data& p, std::span<const std::size_t> leve
 }  // namespace
 }  // namespace detail
 
-std::uint64_t arrangement_count(std::span<const std::size_t> sizes) { return detail::multinomial(sizes); }
+std::uint64_t arrangement_count(std::span<const std::size_t> sizes) {
+  return detail::multinomial(sizes);
+}
 
 method_result permutation_contrast(const prepared_data& p, const contrast& c, const analysis_options& o) {
   using namespace detail;
@@ -374,11 +388,12 @@ method_result permutation_contrast(const prepared_data& p, const contrast& c, co
       exact_walker probe(pool);
       const std::uint64_t per_block = std::max<std::uint64_t>(1, arrangements_per_block / probe.inner_count());
       std::vector<std::uint64_t> block_hits((probe.outer_count() + per_block - 1) / per_block);
-      for_each_exact_block(pool, o, [&](exact_walker& walker, std::uint64_t first, std::uint64_t count, std::uint64_t b) {
-        std::uint64_t local = 0;
-        walker.walk(first, count, [&](const double* ss, const double* qq) { local += is_extreme(ss, qq); });
-        block_hits[b] = local;
-      });
+      for_each_exact_block(
+          pool, o, [&](exact_walker& walker, std::uint64_t first, std::uint64_t count, std::uint64_t b) {
+            std::uint64_t local = 0;
+            walker.walk(first, count, [&](const double* ss, const double* qq) { local += is_extreme(ss, qq); });
+            block_hits[b] = local;
+          });
       for (std::uint64_t h : block_hits) hits += h;  // block order
     }
     total = arrangements;
@@ -434,8 +449,9 @@ method_result permutation_contrast(const prepared_data& p, const contrast& c, co
          << " recomputed on each), p = (b+1)/(m+1) with b = " << hits;
   }
   r.notes.push_back(note.str());
-  r.notes.push_back("no confidence interval: a test of equal distributions gives none without a shift model; "
-                    "read the welch or bootstrap interval");
+  r.notes.push_back(
+      "no confidence interval: a test of equal distributions gives none without a shift model; "
+      "read the welch or bootstrap interval");
   return r;
 }
 
@@ -451,7 +467,8 @@ joint_resampling joint_permutation_statistics(const prepared_data& p, std::span<
   for (const contrast& c : family) terms.push_back(make_terms(c, pool));
   const std::size_t m = family.size();
   const std::uint64_t arrangements = multinomial(pool.sizes());
-  const std::uint64_t limit = o.exact == exact_mode::always ? o.max_arrangements : std::min(o.max_arrangements, o.resamples);
+  const std::uint64_t limit =
+      o.exact == exact_mode::always ? o.max_arrangements : std::min(o.max_arrangements, o.resamples);
   bool exact = false;
   if (o.exact == exact_mode::always) {
     if (arrangements > limit)
@@ -491,14 +508,15 @@ joint_resampling joint_permutation_statistics(const prepared_data& p, std::span<
       });
     });
   } else {
-    for_each_monte_carlo_block(out.resamples, o, [&](block_random& rng, std::uint64_t first, std::uint64_t count, std::uint64_t) {
-      monte_carlo_walker walker(pool);
-      double* row = out.statistics.data() + first * m;
-      walker.run(rng, count, [&](const double* ss, const double* qq) {
-        record(row, ss, qq);
-        row += m;
-      });
-    });
+    for_each_monte_carlo_block(out.resamples, o,
+                               [&](block_random& rng, std::uint64_t first, std::uint64_t count, std::uint64_t) {
+                                 monte_carlo_walker walker(pool);
+                                 double* row = out.statistics.data() + first * m;
+                                 walker.run(rng, count, [&](const double* ss, const double* qq) {
+                                   record(row, ss, qq);
+                                   row += m;
+                                 });
+                               });
   }
   return out;
 }

@@ -6,10 +6,9 @@
 // so results are the same for any thread count.
 #pragma once
 #include <cstdint>
+#include <pcg_random.hpp>
 #include <span>
 #include <vector>
-
-#include <pcg_random.hpp>
 
 namespace contrasta::detail {
 
@@ -61,7 +60,7 @@ inline std::uint64_t bits64(pcg32& rng) {
 struct draw_batch {
   std::uint32_t first = 0, count = 0;  // ranges[first .. first + count)
   std::uint64_t product = 1;
-  std::uint64_t threshold = 0;         // 2^64 mod product
+  std::uint64_t threshold = 0;  // 2^64 mod product
 };
 
 // Groups consecutive ranges into batches with product <= 2^56, so that a batch is redrawn with

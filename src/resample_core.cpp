@@ -1,15 +1,15 @@
 #include "resample_core.hpp"
 
+#include <tbb/blocked_range.h>
+#include <tbb/info.h>
+#include <tbb/parallel_for.h>
+#include <tbb/task_arena.h>
+
 #include <algorithm>
 #include <atomic>
 #include <chrono>
 #include <limits>
 #include <mutex>
-
-#include <tbb/blocked_range.h>
-#include <tbb/parallel_for.h>
-#include <tbb/info.h>
-#include <tbb/task_arena.h>
 
 #include "contrasta/error.hpp"
 
@@ -109,9 +109,10 @@ void run_blocks(std::uint64_t blocks, const analysis_options& o, const std::func
   } else {
     tbb::task_arena arena(threads);
     arena.execute([&] {
-      tbb::parallel_for(tbb::blocked_range<std::uint64_t>(0, blocks, 1), [&](const tbb::blocked_range<std::uint64_t>& r) {
-        for (std::uint64_t b = r.begin(); b != r.end(); ++b) one(b);
-      });
+      tbb::parallel_for(tbb::blocked_range<std::uint64_t>(0, blocks, 1),
+                        [&](const tbb::blocked_range<std::uint64_t>& r) {
+                          for (std::uint64_t b = r.begin(); b != r.end(); ++b) one(b);
+                        });
     });
   }
   if (reporting) o.progress(1.0);  // lets the printer clear its line

@@ -3,8 +3,8 @@
 #pragma once
 #include <algorithm>
 #include <cmath>
-#include <functional>
 #include <cstdint>
+#include <functional>
 #include <span>
 #include <vector>
 
@@ -28,7 +28,7 @@ struct resampling_pool {
   std::vector<std::size_t> levels;   // dataset level of each group, in group order
   std::vector<std::size_t> offsets;  // group g occupies [offsets[g], offsets[g+1])
   std::vector<observation> data;
-  double shift = 0;                  // pooled mean of the centred values that was subtracted
+  double shift = 0;  // pooled mean of the centred values that was subtracted
   double total = 0, total_square = 0;
 
   std::size_t groups() const { return levels.size(); }
@@ -45,9 +45,9 @@ resampling_pool make_pool(const prepared_data& p, std::span<const std::size_t> l
 // A contrast over the pool's groups with its factors precomputed:
 // psi = sum c_g S_g / n_g and Welch V = sum c_g^2 (Q_g - S_g^2/n_g) / (n_g (n_g - 1)).
 struct contrast_terms {
-  std::vector<std::size_t> groups;   // pool groups with c_g != 0
-  std::vector<double> mean_weight;   // c_g / n_g
-  std::vector<double> inverse_n;     // 1 / n_g
+  std::vector<std::size_t> groups;      // pool groups with c_g != 0
+  std::vector<double> mean_weight;      // c_g / n_g
+  std::vector<double> inverse_n;        // 1 / n_g
   std::vector<double> variance_weight;  // c_g^2 / (n_g (n_g - 1)); NaN when n_g = 1
 };
 
@@ -87,9 +87,12 @@ struct extremeness {
       : side(s), observed(obs), tolerance(std::isfinite(obs) ? relative_tolerance * std::abs(obs) : 0.0) {}
   bool operator()(double t) const {
     switch (side) {
-      case alternative::greater: return t >= observed - tolerance;
-      case alternative::less: return t <= observed + tolerance;
-      default: return std::abs(t) >= std::abs(observed) - tolerance;
+      case alternative::greater:
+        return t >= observed - tolerance;
+      case alternative::less:
+        return t <= observed + tolerance;
+      default:
+        return std::abs(t) >= std::abs(observed) - tolerance;
     }
   }
 };

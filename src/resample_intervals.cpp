@@ -46,8 +46,8 @@ double bca_bias(const std::vector<double>& deviations) {
     below += d < 0;
     at_or_below += d <= 0;
   }
-  const double share = (static_cast<double>(below) + static_cast<double>(at_or_below)) /
-                       (2.0 * static_cast<double>(deviations.size()));
+  const double share =
+      (static_cast<double>(below) + static_cast<double>(at_or_below)) / (2.0 * static_cast<double>(deviations.size()));
   if (share <= 0) return -HUGE_VAL;
   if (share >= 1) return HUGE_VAL;
   return boost::math::quantile(normal(), share);

@@ -131,9 +131,9 @@ TEST_CASE("BCa pieces: bias from ties counted half, level formula") {
 }
 
 TEST_CASE("bootstrap is bit-identical for 1, 2, 4 and 8 threads; joint rows match the single test") {
-  const prepared_data p = make_prepared({"a", "b", "c"}, {{4.1, 5.2, 3.9, 6.0, 5.5, 9.9, 4.4},
-                                                         {6.2, 7.1, 5.9, 8.4, 6.6},
-                                                         {5.0, 5.1, 4.7, 6.3, 5.8, 5.2}});
+  const prepared_data p =
+      make_prepared({"a", "b", "c"},
+                    {{4.1, 5.2, 3.9, 6.0, 5.5, 9.9, 4.4}, {6.2, 7.1, 5.9, 8.4, 6.6}, {5.0, 5.1, 4.7, 6.3, 5.8, 5.2}});
   const contrast k = make_contrast({1, -0.5, -0.5});
   analysis_options o;
   o.resamples = 20001;
@@ -159,14 +159,15 @@ TEST_CASE("bootstrap is bit-identical for 1, 2, 4 and 8 threads; joint rows matc
   // column gives the single-contrast bootstrap-t p exactly.
   const joint_resampling j = joint_bootstrap_statistics(p, family, o);
   std::uint64_t hits = 0;
-  for (std::uint64_t r = 0; r < j.resamples; ++r) hits += std::abs(j.row(r)[0]) >= std::abs(j.observed[0]) * (1 - 1e-12);
+  for (std::uint64_t r = 0; r < j.resamples; ++r)
+    hits += std::abs(j.row(r)[0]) >= std::abs(j.observed[0]) * (1 - 1e-12);
   CHECK((static_cast<double>(hits) + 1) / (static_cast<double>(j.resamples) + 1) == results[0].p_value);
   CHECK(j.observed[0] == results[0].statistic);
 }
 
 TEST_CASE("bootstrap one-sided intervals, general linear combinations and errors") {
-  const prepared_data p = make_prepared({"a", "b"}, {{1000.5, 1001.25, 999.75, 1002.0, 1000.0},
-                                                     {1003.5, 1004.0, 1002.25, 1005.5}}, 1000.5);
+  const prepared_data p =
+      make_prepared({"a", "b"}, {{1000.5, 1001.25, 999.75, 1002.0, 1000.0}, {1003.5, 1004.0, 1002.25, 1005.5}}, 1000.5);
   analysis_options o;
   o.resamples = 5000;
   o.side = alternative::greater;

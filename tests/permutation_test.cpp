@@ -146,8 +146,9 @@ TEST_CASE("Phipson-Smyth p and Clopper-Pearson interval") {
     std::uint64_t b, m;
     double low, high;
   };
-  for (const row& r : {row{5, 100, 0.01094033358479003, 0.1351446825356235}, row{0, 999, 0.0, 0.00528958162053871},
-                       row{999, 999, 0.9947104183794613, 1.0}, row{37, 9999, 0.002322566810718104, 0.005570098523512169}}) {
+  for (const row& r :
+       {row{5, 100, 0.01094033358479003, 0.1351446825356235}, row{0, 999, 0.0, 0.00528958162053871},
+        row{999, 999, 0.9947104183794613, 1.0}, row{37, 9999, 0.002322566810718104, 0.005570098523512169}}) {
     const auto ci = clopper_pearson(r.b, r.m);
     CHECK(fixture::relative_error(ci[0], r.low) < 1e-10);
     CHECK(fixture::relative_error(ci[1], r.high) < 1e-10);
@@ -237,7 +238,8 @@ TEST_CASE("Monte Carlo permutation is bit-identical for 1, 2, 4 and 8 threads") 
 }
 
 TEST_CASE("joint permutation statistics") {
-  const prepared_data p = make_prepared({"a", "b", "c"}, {{4.1, 5.2, 3.9, 6.0, 5.5}, {6.2, 7.1, 5.9, 8.4}, {5.0, 5.1, 4.7, 6.3, 5.8}});
+  const prepared_data p =
+      make_prepared({"a", "b", "c"}, {{4.1, 5.2, 3.9, 6.0, 5.5}, {6.2, 7.1, 5.9, 8.4}, {5.0, 5.1, 4.7, 6.3, 5.8}});
   const std::vector<contrast> family{make_contrast({1, -1, 0}), make_contrast({1, 0, -1}), make_contrast({0, 1, -1})};
   analysis_options o;
   o.resamples = 1'000'000;  // more than the arrangements: exact rows
@@ -255,7 +257,8 @@ TEST_CASE("joint permutation statistics") {
   const joint_resampling jp = joint_permutation_statistics(p, pair, o);
   CHECK(jp.resamples == 126);  // C(9,4)
   std::uint64_t hits = 0;
-  for (std::uint64_t r = 0; r < jp.resamples; ++r) hits += std::abs(jp.row(r)[0]) >= std::abs(jp.observed[0]) * (1 - 1e-12);
+  for (std::uint64_t r = 0; r < jp.resamples; ++r)
+    hits += std::abs(jp.row(r)[0]) >= std::abs(jp.observed[0]) * (1 - 1e-12);
   CHECK(fixture::relative_error(static_cast<double>(hits) / static_cast<double>(jp.resamples), single.p_value) < 1e-12);
   // Over every reassignment each group mean averages to the pooled mean, so every raw
   // contrast averages to zero (the permutation distribution of a linear statistic; Pitman 1937).

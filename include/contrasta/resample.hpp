@@ -43,11 +43,11 @@ method_result bootstrap_contrast(const prepared_data& p, const contrast& c, cons
 // undefined in some resample (a zero standard error with a zero difference) is 0, and a zero
 // standard error with a non-zero difference gives +-infinity.
 struct joint_resampling {
-  std::vector<double> observed;     // m observed statistics, same definition as the rows
-  std::vector<double> statistics;   // resamples * m values, resample-major
-  std::uint64_t resamples = 0;      // number of rows
-  bool exact = false;               // rows enumerate every reassignment
-  std::uint64_t seed = 0;           // the seed used (Monte Carlo)
+  std::vector<double> observed;    // m observed statistics, same definition as the rows
+  std::vector<double> statistics;  // resamples * m values, resample-major
+  std::uint64_t resamples = 0;     // number of rows
+  bool exact = false;              // rows enumerate every reassignment
+  std::uint64_t seed = 0;          // the seed used (Monte Carlo)
 
   std::size_t contrast_count() const { return observed.size(); }
   std::span<const double> row(std::uint64_t r) const {
