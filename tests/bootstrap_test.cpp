@@ -184,6 +184,19 @@ TEST_CASE("bootstrap one-sided intervals, general linear combinations and errors
   CHECK(mean_b.ci_low > 1002);
   CHECK(mean_b.ci_high < 1005.6);
   CHECK(mean_b.estimand == "linear combination of means");
+  // constant groups: every resample equals the data, the interval collapses to the estimate
+  // and no resample is as extreme as an infinite t (p = 1/(m+1)); no NaN anywhere
+  const prepared_data flat = make_prepared({"a", "b"}, {{2, 2, 2}, {3, 3, 3, 3}});
+  for (auto interval : {bootstrap_interval::percentile, bootstrap_interval::bca, bootstrap_interval::studentized}) {
+    o.interval = interval;
+    const method_result f = bootstrap_contrast(flat, make_contrast({-1, 1}), o);
+    CHECK(f.estimate == 1.0);
+    if (interval != bootstrap_interval::studentized) {
+      CHECK(f.ci_low == 1.0);
+      CHECK(f.ci_high == 1.0);
+    }
+    CHECK(f.p_value == doctest::Approx(1.0 / 5001));
+  }
   const prepared_data tiny = make_prepared({"a", "b"}, {{1}, {2, 3}});
   CHECK_THROWS_AS(bootstrap_contrast(tiny, make_contrast({1, -1}), o), analysis_error);
 }
