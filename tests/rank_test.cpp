@@ -284,3 +284,21 @@ TEST_CASE("mann-whitney names a scaled shift in plain numbers") {
   CHECK(r.estimand.find("2.000") == std::string::npos);
   CHECK(r.estimate == -6);  // 2 x the median of the 9 differences (-3 by hand)
 }
+
+TEST_CASE("rank contrast: Monte Carlo p brackets the exact p of scipy.stats.permutation_test") {
+  // quality.md: a Monte Carlo p must lie inside its own 99% interval around the exact p. With a
+  // fixed seed this is deterministic; the exact p is the scipy fixture value.
+  const auto& c = fixtures()["rank_contrast"][2];
+  const prepared_data p = prepared(groups_of(c["groups"]));
+  analysis_options o;
+  o.exact = exact_mode::never;
+  o.resamples = 20'000;
+  o.seed = 12345;
+  o.threads = 2;
+  const method_result r = rank_contrast(p, contrast{"k", c["coefficients"].numbers(), "k"}, o);
+  CHECK(!r.exact);
+  REQUIRE(r.p_interval.has_value());
+  CHECK((*r.p_interval)[0] <= c["p"].num());
+  CHECK(c["p"].num() <= (*r.p_interval)[1]);
+  CHECK(r.method == "rank");
+}

@@ -17,9 +17,14 @@ check "mann-whitney U" grep -q "seeded - rye,mann-whitney,1,,U,60.5,,0.438457500
 check "brunner-munzel W" grep -q "brunner-munzel,[^,]*,[^,]*,W,-0.808090872881" <<<"$out"
 check "trimmed t" grep -q "trimmed,[^,]*,[^,]*,t,0.885614885540" <<<"$out"
 check "dunn row" grep -q "seeded - rye,dunn," <<<"$out"
+# The rank contrast: exact for two levels of 10 (184756 arrangements), scipy.stats.permutation_test
+# over rankdata with |Welch t| gives p = 0.462101366126 on these data.
+rank=$("$bin" compare "$data" --group recipe --response crisp -c "seeded - rye" --method rank --format csv --quiet --seed 1)
+check "rank exact p" grep -q "seeded - rye,rank,[^,]*,[^,]*,t,[^,]*,,0.462101366126" <<<"$rank"
+check "rank exact flag" grep -q ",true," <<<"$rank"
 for format in table json csv markdown; do
   check "format $format" "$bin" compare "$data" --group recipe --response crisp --family all-pairs \
-    --method trimmed,mann-whitney,brunner-munzel,dunn --adjust holm --format "$format" --quiet
+    --method trimmed,mann-whitney,brunner-munzel,dunn,rank --adjust holm --resamples 999 --seed 2 --format "$format" --quiet
 done
 json=$("$bin" compare "$data" --group recipe --response crisp -c "seeded - rye" --method brunner-munzel --format json --quiet)
 check "json null hypothesis in words" grep -q '"null": "the two distributions are stochastically equal' <<<"$json"
