@@ -25,8 +25,10 @@ comparison run_comparison(prepared_data p, const comparison_request& request) {
   bool everything = false;
   for (const auto& m : request.methods) {
     if (m == "auto") {
-      if (std::find(out.methods.begin(), out.methods.end(), out.advice.method) == out.methods.end())
-        out.methods.push_back(out.advice.method);
+      // The advised method for tests, and for intervals when the advice names another one.
+      for (const auto& advised : {out.advice.method, out.advice.interval_method})
+        if (!advised.empty() && std::find(out.methods.begin(), out.methods.end(), advised) == out.methods.end())
+          out.methods.push_back(advised);
     } else if (m == "all") {
       everything = true;
       for (const auto& name : method_names())
