@@ -210,7 +210,10 @@ void apply_calibration(recommendation& rec, const calibration_report& c, const s
       add_unique(rec.alternatives, rec.method);
       rec.method = best;
       if (best == "pooled" || best == "welch" || best == "trimmed") rec.interval_method = best;
-      rec.reasons.push_back("so " + best + " is recommended: it holds alpha best on this design");
+      rec.reasons.push_back("so " + best +
+                            " is recommended: of the calibrated methods it holds alpha best on this design, " +
+                            "within " + fixed(100 * best_distance, 1) + " percentage points of alpha " +
+                            number(primary_rows.front()->alpha) + " under every error model");
     } else {
       rec.notes.push_back("no calibrated method held alpha on this design: read every result with caution");
     }

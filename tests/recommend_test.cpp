@@ -196,7 +196,9 @@ TEST_CASE("calibration overrides a primary method that is liberal on this design
   if (available("trimmed")) {
     CHECK(r.method == "trimmed");
     CHECK(has_alternative(r, "welch"));
+    CHECK(mentions(r, "within 0.2 percentage points of alpha 0.05"));
   }
+  check_reasons_have_numbers(r);
   // Welch holding alpha keeps Welch, with the figure stated.
   c.rows = {row("pooled", 0.21, 0.006), row("welch", 0.051, 0.0035)};
   const auto kept = recommend(p, diagnose(p), &c, analysis_options{});
