@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 
+#include "cli/format.hpp"
 #include "cli/report_text.hpp"
 
 namespace contrasta::cli {
@@ -20,6 +21,17 @@ agreement_table method_agreement(const comparison& result, double alpha) {
         t.methods.push_back(r.method);
       }
     }
+  }
+  // A method with no p-value for any contrast (not available, or never applicable) would only
+  // add an empty column: it is listed apart instead.
+  std::vector<std::string> all = std::move(t.methods);
+  t.methods.clear();
+  for (const auto& m : all) {
+    bool any = false;
+    for (const auto& c : result.contrasts) {
+      for (const auto& r : c.results) any |= r.method == m && !std::isnan(std::isnan(r.p_adjusted) ? r.p_value : r.p_adjusted);
+    }
+    (any ? t.methods : t.without_result).push_back(m);
   }
   for (const auto& c : result.contrasts) {
     agreement_row row;
@@ -78,7 +90,7 @@ void pad(std::ostream& out, const std::string& s, std::size_t width, bool right)
 void write_agreement_text(std::ostream& out, const agreement_table& t) {
   const std::string p_kind = t.adjust == "none" || t.adjust.empty() ? "p" : adjustment_words(t.adjust) + "-adjusted p";
   out << "Method agreement at alpha = " << plain_number(t.alpha) << " (" << p_kind
-      << "; * = below alpha, - = method does not apply)\n";
+      << "; * = below alpha, - = no result for that method)\n";
   std::vector<std::vector<std::string>> cells;
   std::vector<std::string> header = {"contrast"};
   for (const auto& m : t.methods) header.push_back(m);
@@ -87,7 +99,8 @@ void write_agreement_text(std::ostream& out, const agreement_table& t) {
   for (const auto& row : t.rows) {
     std::vector<std::string> line = {row.contrast};
     for (const auto& cell : row.cells) {
-      line.push_back(cell.available ? display_p(cell.p) + (cell.below_alpha ? " *" : "  ") : "-");
+      // p-values as the compare table above prints them.
+      line.push_back(cell.available ? p_text(cell.p) + (cell.below_alpha ? " *" : "  ") : "-");
     }
     std::string conclusion = verdict_words(row.verdict);
     if (row.verdict == agreement_verdict::split) {
@@ -110,6 +123,11 @@ void write_agreement_text(std::ostream& out, const agreement_table& t) {
       if (last) out << line[i];
       else pad(out, line[i], widths[i], i > 0 && r > 0);
     }
+    out << '\n';
+  }
+  if (!t.without_result.empty()) {
+    out << "  No p-value from: ";
+    for (std::size_t i = 0; i < t.without_result.size(); ++i) out << (i ? ", " : "") << t.without_result[i];
     out << '\n';
   }
   if (t.split_rows > 0) {

@@ -33,7 +33,8 @@ struct agreement_row {
 };
 
 struct agreement_table {
-  std::vector<std::string> methods;
+  std::vector<std::string> methods;          // methods with a p-value for at least one contrast
+  std::vector<std::string> without_result;   // methods that ran but gave no p-value anywhere
   std::vector<agreement_row> rows;
   double alpha = 0.05;
   std::string adjust = "none";   // which p-values the conclusions use

@@ -36,6 +36,46 @@ std::optional<estimate_scale> scale_of(const method_result& r, const std::string
 
 }  // namespace
 
+bool computed(const method_result& r) { return !std::isnan(r.estimate) || !std::isnan(r.p_value); }
+
+std::vector<std::pair<std::string, std::string>> methods_without_results(const comparison& result) {
+  std::vector<std::pair<std::string, std::string>> out;
+  for (const auto& name : result.methods) {
+    bool any = false, seen = false;
+    std::string why;
+    for (const auto& c : result.contrasts) {
+      for (const auto& m : c.results) {
+        if (m.method != name) continue;
+        seen = true;
+        any |= computed(m);
+        if (why.empty() && !m.notes.empty()) why = not_computed_text(m);
+      }
+    }
+    if (seen && !any) out.emplace_back(name, why.empty() ? std::string("not computed") : why);
+  }
+  return out;
+}
+
+std::string not_computed_text(const method_result& r) {
+  if (r.notes.empty()) return "not computed";
+  const std::string& note = r.notes.front();
+  if (note.rfind("not computed", 0) == 0) return note;
+  return "not computed: " + note;
+}
+
+std::vector<std::pair<std::string, std::string>> method_tests(const comparison& result) {
+  std::vector<std::pair<std::string, std::string>> out;
+  for (const auto& c : result.contrasts) {
+    for (const auto& m : c.results) {
+      if (!computed(m) || m.null_hypothesis.empty()) continue;
+      if (std::find_if(out.begin(), out.end(), [&](const auto& x) { return x.first == m.method; }) == out.end()) {
+        out.emplace_back(m.method, m.null_hypothesis);
+      }
+    }
+  }
+  return out;
+}
+
 std::string alternative_words(alternative side) {
   switch (side) {
     case alternative::two_sided: return "two-sided";
@@ -172,14 +212,30 @@ std::vector<std::string> report_cautions(const report_content& content) {
                   "reproducing command gives the same numbers, and each Monte Carlo p-value "
                   "carries a 99% interval for its resampling error.");
   }
-  std::vector<std::string> seen;
+  // Each note once per method, with the contrasts it concerns.
+  std::vector<std::pair<std::string, std::vector<std::string>>> notes;
   for (const auto& c : content.result.contrasts) {
     for (const auto& m : c.results) {
+      if (!computed(m)) continue;  // shown where the results are, not repeated as a caution
       for (const auto& note : m.notes) {
-        std::string line = m.method + " (" + c.spec.name + "): " + note;
-        if (std::find(seen.begin(), seen.end(), line) == seen.end()) seen.push_back(line);
+        const std::string key = m.method + ": " + note;
+        auto it = std::find_if(notes.begin(), notes.end(), [&](const auto& x) { return x.first == key; });
+        if (it == notes.end()) notes.push_back({key, {c.spec.name}});
+        else it->second.push_back(c.spec.name);
       }
     }
+  }
+  std::vector<std::string> seen;
+  for (const auto& [key, contrasts] : notes) {
+    std::string line = key;
+    if (contrasts.size() == content.result.contrasts.size() && contrasts.size() > 1) {
+      line += " (every contrast)";
+    } else {
+      line += " (";
+      for (std::size_t i = 0; i < contrasts.size(); ++i) line += (i ? ", " : "") + contrasts[i];
+      line += ")";
+    }
+    seen.push_back(std::move(line));
   }
   out.insert(out.end(), seen.begin(), seen.end());
   return out;
@@ -200,8 +256,14 @@ std::vector<std::string> report_headlines(const report_content& content) {
     std::string s = c.spec.name + ": estimated " + (m.estimand.empty() ? "contrast" : m.estimand) + " " +
                     display_number(m.estimate);
     if (!std::isnan(m.ci_low) && !std::isnan(m.ci_high)) {
-      s += " (" + percent_text(r.options.conf) + " interval " + display_number(m.ci_low) + " to " +
-           display_number(m.ci_high) + ")";
+      const bool adjusted = r.adjust.method != "none" && !r.adjust.method.empty();
+      if (adjusted && m.simultaneous_low && m.simultaneous_high) {
+        s += " (" + adjustment_words(r.adjust.method) + "-adjusted " + percent_text(r.options.conf) + " interval " +
+             display_number(*m.simultaneous_low) + " to " + display_number(*m.simultaneous_high) + ")";
+      } else {
+        s += " (" + percent_text(r.options.conf) + " interval " + display_number(m.ci_low) + " to " +
+             display_number(m.ci_high) + (adjusted ? ", not adjusted" : "") + ")";
+      }
     }
     s += "; " + m.method + " " + (r.adjust.method == "none" ? "p" : adjustment_words(r.adjust.method) + "-adjusted p") + " " +
          (display_p(p).front() == '<' ? "" : "= ") + display_p(p) + ": ";

@@ -88,6 +88,18 @@ std::string headline_method(const comparison& result);
 // Words for the p-values the conclusions use ("Holm-adjusted p-value", "p-value").
 std::string p_value_words(const comparison& result);
 
+// Whether a method produced anything (a method that could not run leaves only notes).
+bool computed(const method_result& r);
+
+// Methods that produced nothing for any contrast, each with the first note it left (why).
+std::vector<std::pair<std::string, std::string>> methods_without_results(const comparison& result);
+
+// A note as a reader should see it: "not computed: ..." without a doubled prefix.
+std::string not_computed_text(const method_result& r);
+
+// Each method that ran, with the null hypothesis it tests in words (first seen), in order.
+std::vector<std::pair<std::string, std::string>> method_tests(const comparison& result);
+
 // Words for an alternative hypothesis ("two-sided").
 std::string alternative_words(alternative side);
 

@@ -29,7 +29,7 @@ std::string xml_escape(std::string_view text) {
   return out;
 }
 
-std::string markdown_escape(std::string_view text) {
+std::string markdown_text(std::string_view text) {
   std::string out;
   out.reserve(text.size());
   for (char ch : text) {

@@ -15,7 +15,7 @@ std::string xml_escape(std::string_view text);
 // Escapes text for a Markdown table cell or paragraph: HTML-significant characters become
 // entities (Markdown renderers pass raw HTML through), and | \ ` * _ [ ] < > # are neutralised
 // so that a level name can neither end a table cell nor start a link or emphasis.
-std::string markdown_escape(std::string_view text);
+std::string markdown_text(std::string_view text);
 
 // A number rounded for reading: `significant` digits, plain notation from 1e-4 to 1e6 and
 // scientific notation (1.235e+07) outside; "n/a" for NaN; "inf" / "-inf" for infinities.

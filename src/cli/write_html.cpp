@@ -42,6 +42,12 @@ th, td { padding: 5px 8px; border-bottom: 1px solid var(--line); text-align: rig
 th { font-weight: 600; color: var(--muted); border-bottom: 2px solid var(--line); }
 th:first-child, td:first-child, td.text, th.text { text-align: left; }
 td.words { text-align: left; color: var(--muted); font-size: 12.5px; }
+td:not(.text):not(.words) { white-space: nowrap; }
+tr.contrast-head th { text-align: left; color: var(--ink); font-size: 14px; padding-top: 12px;
+                      border-bottom: 1px solid var(--line); }
+.tag { white-space: nowrap; }
+tr.recommended td.text { white-space: nowrap; }
+table.agreement td.text { min-width: 12em; }
 tr.split td { background: var(--accent-soft); }
 .mark { display: inline-block; min-width: 1.3em; text-align: center; font-weight: 700; }
 .yes { color: var(--ink); }
@@ -73,10 +79,6 @@ std::string e(const std::string& s) { return xml_escape(s); }
 std::string cell(const std::string& s, const char* cls = nullptr) {
   std::string out = cls ? std::string("<td class=\"") + cls + "\">" : std::string("<td>");
   return out + e(s) + "</td>";
-}
-
-std::string df_text(const std::optional<double>& df) {
-  return df ? display_df(*df) : std::string("n/a");
 }
 
 std::string interval_text(double low, double high) {
@@ -158,22 +160,34 @@ void write_results_table(std::ostream& out, const comparison& r, const std::stri
     for (const auto& m : c.results) simultaneous |= m.simultaneous_low.has_value();
   }
   const std::string percent = percent_text(r.options.conf);
-  out << "<div class=\"table-wrap\"><table class=\"results\">\n<thead><tr><th>contrast</th><th class=\"text\">method</th>"
-         "<th>estimate</th><th>SE</th><th>statistic</th><th>df</th><th>p-value</th>";
-  if (adjusted) out << "<th>" << e(adjustment_words(r.adjust.method)) << "-adjusted p</th>";
-  out << "<th>" << e(percent) << " interval</th>";
+  const int columns = 6 + (adjusted ? 1 : 0) + (simultaneous ? 1 : 0);
+  // Methods with no result anywhere are listed once below the table instead of row by row.
+  const auto without = methods_without_results(r);
+  std::vector<std::string> silent;
+  for (const auto& w : without) silent.push_back(w.first);
+  out << "<div class=\"table-wrap\"><table class=\"results\">\n<thead><tr><th class=\"text\">method</th>"
+         "<th>estimate</th><th>" << e(percent) << " interval</th>";
   if (simultaneous) out << "<th>adjusted interval</th>";
-  out << "<th class=\"text\">null hypothesis tested</th></tr></thead>\n<tbody>\n";
+  out << "<th>p-value</th>";
+  if (adjusted) out << "<th>" << e(adjustment_words(r.adjust.method)) << "-adjusted p</th>";
+  out << "<th>statistic (df)</th><th>SE</th></tr></thead>\n<tbody>\n";
   for (const auto& c : r.contrasts) {
-    for (std::size_t j = 0; j < c.results.size(); ++j) {
-      const method_result& m = c.results[j];
+    out << "<tr class=\"contrast-head\"><th class=\"text\" colspan=\"" << columns << "\">" << e(c.spec.name)
+        << "</th></tr>\n";
+    for (const method_result& m : c.results) {
+      if (std::find(silent.begin(), silent.end(), m.method) != silent.end()) continue;
       const bool rec = m.method == advised;
-      out << "<tr" << (rec ? " class=\"recommended\"" : "") << ">";
-      out << (j == 0 ? cell(c.spec.name) : std::string("<td></td>"));
-      out << "<td class=\"text\">" << e(m.method) << (rec ? "<span class=\"tag\">recommended</span>" : "") << "</td>";
-      out << cell(display_number(m.estimate)) << cell(display_number(m.se))
-          << cell((m.statistic_name.empty() ? std::string() : m.statistic_name + " = ") + display_number(m.statistic))
-          << cell(df_text(m.df));
+      out << "<tr" << (rec ? " class=\"recommended\"" : "") << "><td class=\"text\">" << e(m.method)
+          << (rec ? "<span class=\"tag\">recommended</span>" : "") << "</td>";
+      if (!computed(m)) {
+        out << "<td class=\"words\" colspan=\"" << columns - 1 << "\">" << e(not_computed_text(m)) << "</td></tr>\n";
+        continue;
+      }
+      out << cell(display_number(m.estimate)) << cell(interval_text(m.ci_low, m.ci_high));
+      if (simultaneous) {
+        out << cell(m.simultaneous_low && m.simultaneous_high ? interval_text(*m.simultaneous_low, *m.simultaneous_high)
+                                                              : std::string("n/a"));
+      }
       std::string p = display_p(m.p_value);
       if (m.p_interval && !m.exact) {
         p += " (99%: " + display_p((*m.p_interval)[0]) + " to " + display_p((*m.p_interval)[1]) + ")";
@@ -182,15 +196,23 @@ void write_results_table(std::ostream& out, const comparison& r, const std::stri
       }
       out << cell(p);
       if (adjusted) out << cell(display_p(m.p_adjusted));
-      out << cell(interval_text(m.ci_low, m.ci_high));
-      if (simultaneous) {
-        out << cell(m.simultaneous_low && m.simultaneous_high ? interval_text(*m.simultaneous_low, *m.simultaneous_high)
-                                                              : std::string("n/a"));
-      }
-      out << cell(m.null_hypothesis, "words") << "</tr>\n";
+      std::string statistic = (m.statistic_name.empty() ? std::string() : m.statistic_name + " = ") + display_number(m.statistic);
+      if (m.df) statistic += " (" + display_df(*m.df) + ")";
+      out << cell(statistic) << cell(display_number(m.se)) << "</tr>\n";
     }
   }
   out << "</tbody></table></div>\n";
+  if (!without.empty()) {
+    out << "<p class=\"note\">No result from:</p>\n<ul class=\"note\">\n";
+    for (const auto& [method, why] : without) out << "<li>" << e(method) << ": " << e(why) << "</li>\n";
+    out << "</ul>\n";
+  }
+  const auto tests = method_tests(r);
+  if (!tests.empty()) {
+    out << "<h3>What each method tests</h3>\n<dl class=\"methods\">\n";
+    for (const auto& [method, words] : tests) out << "<dt>" << e(method) << "</dt><dd>" << e(words) << "</dd>\n";
+    out << "</dl>\n";
+  }
 }
 
 void write_agreement(std::ostream& out, const comparison& r) {
@@ -204,27 +226,33 @@ void write_agreement(std::ostream& out, const comparison& r) {
     out << "<p class=\"calm\"><strong>Every method reaches the same conclusion for every contrast</strong> "
            "at alpha " << e(alpha) << ".</p>\n";
   }
-  out << "<div class=\"table-wrap\"><table class=\"agreement\">\n<thead><tr><th>contrast</th>";
+  out << "<div class=\"table-wrap\"><table class=\"agreement\">\n<thead><tr><th>contrast</th><th class=\"text\">conclusion</th>";
   for (const auto& m : t.methods) out << "<th>" << e(m) << "</th>";
-  out << "<th class=\"text\">conclusion</th></tr></thead>\n<tbody>\n";
+  out << "</tr></thead>\n<tbody>\n";
   for (const auto& row : t.rows) {
     const bool split = row.verdict == agreement_verdict::split;
     out << "<tr" << (split ? " class=\"split\"" : "") << ">" << cell(row.contrast);
-    for (const auto& c : row.cells) {
-      if (!c.available) {
-        out << "<td class=\"no\" title=\"does not apply\">\xE2\x80\x93</td>";
-        continue;
-      }
-      out << "<td>" << e(display_p(c.p)) << " <span class=\"mark " << (c.below_alpha ? "yes\">\xE2\x97\x8F" : "no\">\xE2\x97\x8B")
-          << "</span></td>";
-    }
     std::string verdict = verdict_words(row.verdict);
     if (split) verdict = "\xE2\x96\xB2 depends on the method (" + std::to_string(row.finding) + " of " + std::to_string(row.available) + " find a difference)";
-    out << "<td class=\"text" << (split ? " verdict-split" : "") << "\">" << e(verdict) << "</td></tr>\n";
+    out << "<td class=\"text" << (split ? " verdict-split" : "") << "\">" << e(verdict) << "</td>";
+    for (const auto& c : row.cells) {
+      if (!c.available) {
+        out << "<td class=\"no\" title=\"no result\">\xE2\x80\x93</td>";
+        continue;
+      }
+      out << "<td><span class=\"mark " << (c.below_alpha ? "yes\">\xE2\x97\x8F" : "no\">\xE2\x97\x8B") << "</span> "
+          << e(display_p(c.p)) << "</td>";
+    }
+    out << "</tr>\n";
   }
   out << "</tbody></table></div>\n";
+  if (!t.without_result.empty()) {
+    out << "<p class=\"note\">No p-value from ";
+    for (std::size_t i = 0; i < t.without_result.size(); ++i) out << (i ? ", " : "") << e(t.without_result[i]);
+    out << " (see the results above).</p>\n";
+  }
   out << "<p class=\"note\">Each cell is the " << e(p_value_words(r)) << " of that method; \xE2\x97\x8F = below alpha "
-      << e(alpha) << " (a difference), \xE2\x97\x8B = not below, \xE2\x80\x93 = the method does not apply to that contrast.</p>\n";
+      << e(alpha) << " (a difference), \xE2\x97\x8B = not below, \xE2\x80\x93 = no result (the method does not apply to that contrast or could not be computed).</p>\n";
 }
 
 }  // namespace

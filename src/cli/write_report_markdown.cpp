@@ -1,5 +1,6 @@
 #include "cli/write_report_markdown.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <sstream>
 
@@ -9,7 +10,7 @@ namespace contrasta::cli {
 
 namespace {
 
-std::string m(const std::string& s) { return markdown_escape(s); }
+std::string m(const std::string& s) { return markdown_text(s); }
 
 std::string p_phrase(double p) {
   const std::string t = display_p(p);
@@ -190,41 +191,62 @@ markdown_report write_markdown_report(const report_content& content, const std::
     for (const auto& c : r.contrasts) {
       for (const auto& x : c.results) simultaneous |= x.simultaneous_low.has_value();
     }
-    std::vector<std::string> h = {"contrast", "method", "estimate", "SE", "statistic", "df", "p-value"};
-    if (adjusted) h.push_back(m(adjustment_words(r.adjust.method)) + "-adjusted p");
-    h.push_back(percent + " interval");
+    std::vector<std::string> h = {"contrast", "method", "estimate", percent + " interval"};
     if (simultaneous) h.push_back("adjusted interval");
-    h.push_back("null hypothesis tested");
-    std::vector<bool> text(h.size(), false);
-    text[1] = true;
-    text.back() = true;
-    header(out, h, text);
+    h.push_back("p-value");
+    if (adjusted) h.push_back(m(adjustment_words(r.adjust.method)) + "-adjusted p");
+    h.push_back("statistic (df)");
+    h.push_back("SE");
+    header(out, h, {false, true});
+    const auto without = methods_without_results(r);
     for (const auto& c : r.contrasts) {
       for (const auto& x : c.results) {
+        if (std::find_if(without.begin(), without.end(), [&](const auto& w) { return w.first == x.method; }) != without.end()) {
+          continue;  // listed once below the table
+        }
+        const bool rec = x.method == advised;
+        std::vector<std::string> cells = {m(c.spec.name), rec ? "**" + m(x.method) + "** (recommended)" : m(x.method)};
+        if (!computed(x)) {
+          cells.push_back(m(not_computed_text(x)));
+          while (cells.size() < h.size()) cells.push_back("");
+          row(out, cells);
+          continue;
+        }
         std::string p = display_p(x.p_value);
         if (x.p_interval && !x.exact) {
           p += " (99%: " + display_p((*x.p_interval)[0]) + " to " + display_p((*x.p_interval)[1]) + ")";
         } else if (x.exact) {
           p += " (exact)";
         }
-        const bool rec = x.method == advised;
-        std::vector<std::string> cells = {
-            m(c.spec.name), rec ? "**" + m(x.method) + "** (recommended)" : m(x.method), display_number(x.estimate),
-            display_number(x.se),
-            (x.statistic_name.empty() ? std::string() : m(x.statistic_name) + " = ") + display_number(x.statistic),
-            x.df ? display_df(*x.df) : std::string("n/a"), p};
-        if (adjusted) cells.push_back(display_p(x.p_adjusted));
+        cells.push_back(display_number(x.estimate));
         cells.push_back(interval_text(x.ci_low, x.ci_high));
         if (simultaneous) {
           cells.push_back(x.simultaneous_low && x.simultaneous_high
                               ? interval_text(*x.simultaneous_low, *x.simultaneous_high)
                               : std::string("n/a"));
         }
-        cells.push_back(m(x.null_hypothesis));
+        cells.push_back(p);
+        if (adjusted) cells.push_back(display_p(x.p_adjusted));
+        std::string statistic =
+            (x.statistic_name.empty() ? std::string() : m(x.statistic_name) + " = ") + display_number(x.statistic);
+        if (x.df) statistic += " (" + display_df(*x.df) + ")";
+        cells.push_back(statistic);
+        cells.push_back(display_number(x.se));
         row(out, cells);
       }
     }
     out << '\n';
+    if (!without.empty()) {
+      out << "No result from:\n\n";
+      for (const auto& [method, why] : without) out << "- " << m(method) << ": " << m(why) << '\n';
+      out << '\n';
+    }
+    const auto tests = method_tests(r);
+    if (!tests.empty()) {
+      out << "What each method tests:\n\n";
+      for (const auto& [method, words] : tests) out << "- " << m(method) << ": " << m(words) << '\n';
+      out << '\n';
+    }
   }
   if (adjusted) {
     out << "Adjustment: " << m(adjustment_words(r.adjust.method)) << " over " << r.adjust.family_size << " contrasts"
@@ -242,25 +264,27 @@ markdown_report write_markdown_report(const report_content& content, const std::
     } else if (!t.rows.empty()) {
       out << "Every method reaches the same conclusion for every contrast at alpha " << alpha << ".\n\n";
     }
-    std::vector<std::string> h = {"contrast"};
+    std::vector<std::string> h = {"contrast", "conclusion"};
     for (const auto& x : t.methods) h.push_back(m(x));
-    h.push_back("conclusion");
-    std::vector<bool> text(h.size(), false);
-    text.back() = true;
-    header(out, h, text);
+    header(out, h, {false, true});
     for (const auto& rw : t.rows) {
       const bool split = rw.verdict == agreement_verdict::split;
-      std::vector<std::string> cells = {(split ? "\xE2\x96\xB2 " : "") + m(rw.contrast)};
+      std::vector<std::string> cells = {(split ? "\xE2\x96\xB2 " : "") + m(rw.contrast),
+                                        split ? "**depends on the method** (" + std::to_string(rw.finding) + " of " +
+                                                    std::to_string(rw.available) + " find a difference)"
+                                              : verdict_words(rw.verdict)};
       for (const auto& c : rw.cells) {
-        cells.push_back(c.available ? display_p(c.p) + (c.below_alpha ? " \xE2\x97\x8F" : " \xE2\x97\x8B") : "\xE2\x80\x93");
+        cells.push_back(c.available ? (c.below_alpha ? "\xE2\x97\x8F " : "\xE2\x97\x8B ") + display_p(c.p) : "\xE2\x80\x93");
       }
-      cells.push_back(split ? "**depends on the method** (" + std::to_string(rw.finding) + " of " +
-                                  std::to_string(rw.available) + " find a difference)"
-                            : verdict_words(rw.verdict));
       row(out, cells);
     }
+    if (!t.without_result.empty()) {
+      out << "\nNo p-value from ";
+      for (std::size_t i = 0; i < t.without_result.size(); ++i) out << (i ? ", " : "") << m(t.without_result[i]);
+      out << " (see the results above).\n";
+    }
     out << "\nEach cell is the " << m(p_value_words(r)) << " of that method; \xE2\x97\x8F = below alpha " << alpha
-        << " (a difference), \xE2\x97\x8B = not below, \xE2\x80\x93 = the method does not apply to that contrast.\n\n";
+        << " (a difference), \xE2\x97\x8B = not below, \xE2\x80\x93 = no result (the method does not apply to that contrast or could not be computed).\n\n";
   }
 
   bool any_null = false;
