@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <map>
 #include <sstream>
 
 #include "cli/report_text.hpp"
@@ -259,16 +260,28 @@ std::string observation_plot(const observation_plot_input& in) {
     c.text(x0 - 12, band_top + 32, shorten(g.level, 24), "end", colour::ink,
            " font-weight=\"600\" font-size=\"13\"", g.level);
 
+    // Median: an upright stroke through the cloud of points, drawn first so that no point hides
+    // behind it; it reaches above and below the cloud so that it stays visible.
+    if (std::isfinite(g.median)) {
+      c.line(x(g.median), band_top + 5, x(g.median), band_top + 41, colour::accent, 2.6);
+    }
     // Observations: deterministic vertical jitter within the upper part of the band.
     const std::size_t n = g.values.size();
     const std::size_t stride = n > point_limit ? (n + point_limit - 1) / point_limit : 1;
     std::size_t drawn = 0;
+    // Points that would land on top of each other (ties, as on a 0-10 score scale) are dodged
+    // apart vertically in turn: 0, +5, -5, +10, -10 px; a small hashed jitter keeps the rows of
+    // a crowded column from lining up. Crowds beyond the band fall back to the jitter alone.
+    std::map<long, int> crowd;
     for (std::size_t j = 0; j < n; ++j) {
       const bool flagged = j < g.outlier.size() && g.outlier[j];
       if (!flagged && j % stride != 0) continue;
       const double v = g.values[j];
       if (!std::isfinite(v)) continue;
-      const double px = x(v), py = band_top + 23 + 11 * jitter(i, j);
+      const double px = x(v);
+      const int k = crowd[std::lround(px / 6)]++;
+      const double step = 5.0 * ((k + 1) / 2) * (k % 2 ? 1 : -1);
+      const double py = band_top + 23 + (std::fabs(step) <= 13 ? step + 1.5 * jitter(i, j) : 13 * jitter(i, j));
       std::string title = g.level;
       if (j < g.rows.size()) title += ", row " + std::to_string(g.rows[j]);
       title += ": " + display_number(v, 6);
@@ -281,10 +294,6 @@ std::string observation_plot(const observation_plot_input& in) {
       } else {
         c.circle(px, py, 3.6, colour::point, "#ffffff", 0.6, title, " fill-opacity=\"0.6\"");
       }
-    }
-    // Median: an upright stroke through the cloud of points.
-    if (std::isfinite(g.median)) {
-      c.line(x(g.median), band_top + 8, x(g.median), band_top + 40, colour::accent, 2.6);
     }
     // Mean and its interval below the points.
     const double my = band_top + 52;
