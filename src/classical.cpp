@@ -15,7 +15,7 @@ double mean_contrast(const prepared_data& p, const contrast& c) {
   double psi = 0;
   for (std::size_t i = 0; i < c.coefficients.size(); ++i)
     if (c.coefficients[i] != 0) psi += c.coefficients[i] * p.groups[i].centred_mean;
-  return psi + p.data.centre * c.coefficient_sum();
+  return psi + c.location_term(p.data.centre);
 }
 
 void require_levels(const prepared_data& p, const contrast& c) {
