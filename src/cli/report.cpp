@@ -1,11 +1,13 @@
 // `contrasta report`: the comparison of `compare`, gathered with the few extra numbers a reader
 // needs (each mean's interval, flagged outliers) and handed to the HTML or Markdown writer.
+#include <cmath>
 #include <filesystem>
 #include <iostream>
 
 #include "cli/commands.hpp"
 #include "cli/common.hpp"
 #include "cli/report_content.hpp"
+#include "cli/report_text.hpp"
 #include "cli/run.hpp"
 #include "cli/write_html.hpp"
 #include "cli/write_report_markdown.hpp"
@@ -14,6 +16,10 @@
 #include "contrasta/error.hpp"
 #include "contrasta/prepared.hpp"
 #include "contrasta/version.hpp"
+#if __has_include("contrasta/diagnostics.hpp")
+#include "contrasta/diagnostics.hpp"
+#define CONTRASTA_REPORT_DIAGNOSTICS 1
+#endif
 
 namespace contrasta::cli {
 namespace {
@@ -69,6 +75,60 @@ void add_mean_intervals(const comparison& result, std::vector<report_level>& lev
   }
 }
 
+#ifdef CONTRASTA_REPORT_DIAGNOSTICS
+// The engine's diagnostics in the report's words: test tables, flagged outliers (also marked
+// on the observation plot) and the measured facts behind the recommendation.
+void add_diagnostics(const prepared_data& p, report_content& content) {
+  const diagnostics_report d = diagnose(p);
+  content.diagnostics_available = true;
+  for (const auto& t : d.variance) content.variance_tests.push_back({t.test, "", t.statistic, t.df1, t.df2, t.p_value});
+  for (const auto& t : d.normality) {
+    const std::string level = t.level ? p.groups[*t.level].level : std::string();
+    content.normality_tests.push_back({t.test, level, t.statistic, std::nullopt, std::nullopt, t.p_value});
+  }
+  for (const auto& o : d.outliers) {
+    content.outliers.push_back({p.groups[o.level].level, o.row, o.value, o.robust_z});
+    report_level& l = content.levels[o.level];
+    l.outlier.resize(l.values.size(), false);
+    for (std::size_t j = 0; j < l.rows.size(); ++j) {
+      if (l.rows[j] == o.row) l.outlier[j] = true;
+    }
+  }
+  const spread_balance& s = d.spread;
+  auto level = [&](std::size_t i) { return i < p.groups.size() ? p.groups[i].level : std::string("?"); };
+  if (!std::isnan(s.sd_ratio)) {
+    content.diagnostic_facts.push_back("largest SD / smallest SD = " + display_number(s.sd_ratio, 3) + " (" +
+                                       level(s.largest_sd_level) + " against " + level(s.smallest_sd_level) + ")");
+  }
+  if (!std::isnan(s.n_ratio)) {
+    content.diagnostic_facts.push_back("largest n / smallest n = " + display_number(s.n_ratio, 3) + "; smallest group " +
+                                       level(s.smallest_n_level) + " with n = " + std::to_string(s.smallest_n));
+  }
+  if (s.larger_variances_in_smaller_groups) {
+    content.diagnostic_facts.push_back("the larger variances sit in the smaller groups (correlation of n with variance " +
+                                       display_number(s.size_variance_correlation, 3) +
+                                       "): the pooled t then rejects too often (Box 1954)");
+  }
+  if (!std::isnan(s.pooled_se_ratio) && s.pooled_se_ratio < 1) {
+    content.diagnostic_facts.push_back(
+        "pooled standard error / separate-variances standard error = " + display_number(s.pooled_se_ratio, 3) + " for " +
+        level(s.pooled_se_pair_first) + " against " + level(s.pooled_se_pair_second) +
+        " (below 1: the pooled t is too large for that pair)");
+  }
+  if (!std::isnan(d.residuals.skewness)) {
+    content.diagnostic_facts.push_back("shape of the standardized residuals: skewness " +
+                                       display_number(d.residuals.skewness, 3) + ", excess kurtosis " +
+                                       display_number(d.residuals.excess_kurtosis, 3) + " (0 and 0 for a normal shape)");
+  }
+  content.diagnostic_facts.push_back(std::to_string(d.ties.distinct_values) + " distinct values; " +
+                                     display_number(d.ties.tied_share * 100, 3) + "% of observations share their value" +
+                                     (d.ties.small_integer_scale ? " (whole numbers on a short scale: treat as discrete)" : ""));
+  content.diagnostic_facts.push_back(std::to_string(d.outliers.size()) + " observation" +
+                                     (d.outliers.size() == 1 ? "" : "s") +
+                                     " flagged as possible outliers (robust z above 3.5, Iglewicz & Hoaglin 1993)");
+}
+#endif
+
 report_content gather(comparison result) {
   report_content content;
   const dataset& d = result.prepared.data;
@@ -81,6 +141,9 @@ report_content gather(comparison result) {
     content.levels.push_back(std::move(level));
   }
   add_mean_intervals(result, content.levels);
+#ifdef CONTRASTA_REPORT_DIAGNOSTICS
+  add_diagnostics(result.prepared, content);
+#endif
   for (const auto& c : result.contrasts) {
     for (const auto& m : c.results) content.uses_seed |= m.resamples.has_value();
   }
