@@ -184,8 +184,8 @@ std::vector<report_figure> report_figures(const report_content& content, bool st
     h.counted = r.options.side == alternative::two_sided ? svg::histogram_input::tail::both
                 : r.options.side == alternative::greater ? svg::histogram_input::tail::upper
                                                          : svg::histogram_input::tail::lower;
-    const std::string count = n.exact ? "all " + std::to_string(n.resamples) + " arrangements"
-                                      : std::to_string(n.resamples) + " resamples";
+    const std::string count = n.exact ? "all " + count_text(static_cast<double>(n.resamples)) + " arrangements"
+                                      : count_text(static_cast<double>(n.resamples)) + " resamples";
     h.title = n.contrast + ": " + n.method + " statistic " + n.statistic_name + " under the null (" + count + ")";
     figures.push_back({"null-" + std::to_string(i + 1),
                        "Null distribution of the " + n.method + " statistic for " + n.contrast +

@@ -58,6 +58,7 @@ struct report_content {
   std::vector<std::string> diagnostic_facts;  // measured facts in words ("largest SD / smallest SD = 2.4")
   std::vector<report_outlier> outliers;
   std::vector<report_null> nulls;
+  std::size_t nulls_omitted = 0;            // null distributions left out to keep the report short
   bool diagnostics_available = false;       // false: the build has no diagnostics step yet
   std::string version;
   std::string command;                      // the command line that reproduces the report

@@ -107,6 +107,17 @@ std::string adjustment_words(const std::string& name) {
   return name;
 }
 
+std::string count_text(double count) {
+  if (!std::isfinite(count)) return display_number(count);
+  std::string digits = printf_text("%.*f", 0, std::fabs(count));
+  std::string out;
+  for (std::size_t i = 0; i < digits.size(); ++i) {
+    if (i > 0 && (digits.size() - i) % 3 == 0) out += ',';
+    out += digits[i];
+  }
+  return count < 0 && out != "0" ? "-" + out : out;
+}
+
 std::string fixed_decimals(double value, int decimals) {
   if (!std::isfinite(value)) return display_number(value);
   return printf_text("%.*f", decimals < 0 ? 0 : decimals, value);

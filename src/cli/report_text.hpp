@@ -38,6 +38,9 @@ std::string percent_text(double proportion);
 // Benjamini-Hochberg. Unknown names come back as they are.
 std::string adjustment_words(const std::string& name);
 
+// A whole count with thousands separated by commas: 99999 -> "99,999".
+std::string count_text(double count);
+
 // A number with a fixed count of decimals (tick labels, where a column of labels must line up).
 std::string fixed_decimals(double value, int decimals);
 

@@ -420,57 +420,79 @@ std::string forest_plot(const forest_plot_input& in) {
 }
 
 std::string null_histogram(const histogram_input& in) {
-  constexpr double width = 780, height = 270, x0 = 64, top = 62, bins = 40;
-  const double x1 = width - 24, bottom = height - 56;
+  constexpr double width = 780, height = 236, x0 = 64, top = 76, bins = 40;
+  const double x1 = width - 24, bottom = height - 50;
   canvas c(width, height, in.title, in.standalone);
   c.text(14, 20, in.title, "start", colour::ink, " font-weight=\"700\" font-size=\"13\"");
 
-  double low = in.observed, high = in.observed;
+  // The drawn range covers the middle 99.9% of the resampled statistics and the observed value
+  // (and its mirror for a two-sided p); the few beyond are counted in the end bars, so that one
+  // wild resample cannot squeeze the picture.
+  std::vector<double> finite;
+  finite.reserve(in.statistics.size());
   for (double v : in.statistics) {
-    if (std::isfinite(v)) low = std::min(low, v), high = std::max(high, v);
+    if (std::isfinite(v)) finite.push_back(v);
   }
-  if (in.counted == histogram_input::tail::both && std::isfinite(in.observed)) {
+  double low = in.observed, high = in.observed;
+  if (!finite.empty()) {
+    const auto lo_at = static_cast<std::size_t>(0.0005 * static_cast<double>(finite.size() - 1));
+    const auto hi_at = static_cast<std::size_t>(0.9995 * static_cast<double>(finite.size() - 1));
+    std::nth_element(finite.begin(), finite.begin() + static_cast<std::ptrdiff_t>(lo_at), finite.end());
+    const double q_low = finite[lo_at];
+    std::nth_element(finite.begin(), finite.begin() + static_cast<std::ptrdiff_t>(hi_at), finite.end());
+    const double q_high = finite[hi_at];
+    low = std::isfinite(in.observed) ? std::min(q_low, in.observed) : q_low;
+    high = std::isfinite(in.observed) ? std::max(q_high, in.observed) : q_high;
+  }
+  const bool both = in.counted == histogram_input::tail::both;
+  if (both && std::isfinite(in.observed)) {
     low = std::min(low, -std::fabs(in.observed));
     high = std::max(high, std::fabs(in.observed));
   }
   const axis a = nice_axis(low, high);
   const scale x{a.low, a.high, x0, x1};
   const double bin_width = (a.high - a.low) / bins;
-  std::vector<double> counts(static_cast<std::size_t>(bins), 0);
-  for (double v : in.statistics) {
-    if (!std::isfinite(v)) continue;
-    auto b = static_cast<std::size_t>(std::floor((v - a.low) / bin_width));
-    counts[std::min(b, counts.size() - 1)] += 1;
+  // Per bin: resamples at least as extreme as observed, and the others, stacked in one bar so
+  // that a bin the observed value cuts shows both parts truthfully.
+  std::vector<double> extreme(static_cast<std::size_t>(bins), 0), ordinary(static_cast<std::size_t>(bins), 0);
+  const double threshold = std::fabs(in.observed);
+  const double tolerance = 1e-12 * std::max(1.0, threshold);  // as the engine's "at least as extreme"
+  std::size_t beyond = 0;
+  for (double v : finite) {
+    double b = std::floor((v - a.low) / bin_width);
+    if (b < 0 || b >= bins) ++beyond;
+    const auto index = static_cast<std::size_t>(std::clamp(b, 0.0, bins - 1));
+    bool is_extreme = false;
+    switch (in.counted) {
+      case histogram_input::tail::both: is_extreme = std::fabs(v) >= threshold - tolerance; break;
+      case histogram_input::tail::upper: is_extreme = v >= in.observed - tolerance; break;
+      case histogram_input::tail::lower: is_extreme = v <= in.observed + tolerance; break;
+    }
+    (is_extreme ? extreme : ordinary)[index] += 1;
   }
-  const double most = counts.empty() ? 1 : *std::max_element(counts.begin(), counts.end());
-  axis ya = nice_axis(0, std::max(most, 1.0), 4);
+  double most = 1;
+  for (std::size_t b = 0; b < extreme.size(); ++b) most = std::max(most, extreme[b] + ordinary[b]);
+  axis ya = nice_axis(0, most, 4);
   ya.decimals = 0;
   const scale y{0, ya.high, bottom, top};
 
   // Legend.
   c.rect(14, 32, 14, 10, colour::bar);
   c.text(34, 41, "resampled statistic under the null");
-  c.rect(270, 32, 14, 10, colour::accent);
+  c.rect(270, 32, 14, 10, colour::tail);
   c.text(290, 41, "at least as extreme as observed" + (in.p_text.empty() ? std::string() : " (p " + in.p_text + ")"));
 
   for (double t : ya.ticks) {
     c.line(x0, y(t), x1, y(t), colour::grid, 1);
-    c.text(x0 - 8, y(t) + 4, fixed_decimals(t, 0), "end", colour::muted);
+    c.text(x0 - 8, y(t) + 4, count_text(t), "end", colour::muted, " font-size=\"11\"");
   }
-  c.text(18, (top + bottom) / 2, "count", "middle", colour::muted,
-         (" transform=\"rotate(-90 18 " + num((top + bottom) / 2) + ")\"").c_str());
-  const double threshold = std::fabs(in.observed);
-  for (std::size_t b = 0; b < counts.size(); ++b) {
-    if (counts[b] == 0) continue;
-    const double left = a.low + static_cast<double>(b) * bin_width, centre = left + bin_width / 2;
-    bool extreme = false;
-    switch (in.counted) {
-      case histogram_input::tail::both: extreme = std::fabs(centre) >= threshold; break;
-      case histogram_input::tail::upper: extreme = centre >= in.observed; break;
-      case histogram_input::tail::lower: extreme = centre <= in.observed; break;
+  for (std::size_t b = 0; b < extreme.size(); ++b) {
+    const double left = a.low + static_cast<double>(b) * bin_width;
+    const double bar_x = x(left) + 0.5, bar_w = x(left + bin_width) - x(left) - 1;
+    if (ordinary[b] > 0) c.rect(bar_x, y(ordinary[b]), bar_w, bottom - y(ordinary[b]), colour::bar);
+    if (extreme[b] > 0) {
+      c.rect(bar_x, y(ordinary[b] + extreme[b]), bar_w, y(ordinary[b]) - y(ordinary[b] + extreme[b]), colour::tail);
     }
-    c.rect(x(left) + 0.5, y(counts[b]), x(left + bin_width) - x(left) - 1, bottom - y(counts[b]),
-           extreme ? colour::accent : colour::bar);
   }
   // Axis.
   for (double t : a.ticks) {
@@ -478,20 +500,23 @@ std::string null_histogram(const histogram_input& in) {
     c.text(x(t), bottom + 18, fixed_decimals(t, a.decimals), "middle", colour::muted);
   }
   c.line(x0, bottom, x1, bottom, colour::muted, 1);
-  c.text((x0 + x1) / 2, bottom + 38, "statistic " + in.statistic_name, "middle");
+  std::string axis_label = "statistic " + in.statistic_name;
+  if (beyond > 0) axis_label += " (" + count_text(static_cast<double>(beyond)) + " beyond the axis are counted in the end bars)";
+  c.text((x0 + x1) / 2, bottom + 38, axis_label, "middle");
   if (std::isfinite(in.observed)) {
     const double ox = x(in.observed);
-    c.line(ox, top - 6, ox, bottom, colour::ink, 2);
-    c.text(ox, top - 10, "observed " + in.statistic_name + " = " + display_number(in.observed),
-           ox > (x0 + x1) / 2 ? "end" : "start", colour::ink, " font-weight=\"600\"");
-    if (in.counted == histogram_input::tail::both && in.observed != 0) {
+    const bool right_half = ox > (x0 + x1) / 2;
+    c.line(ox, top - 8, ox, bottom, colour::ink, 2);
+    c.text(right_half ? ox - 6 : ox + 6, top - 1, "observed " + in.statistic_name + " = " + display_number(in.observed),
+           right_half ? "end" : "start", colour::ink, " font-weight=\"600\"");
+    if (both && in.observed != 0) {
       const double mx = x(-in.observed);
-      c.line(mx, top + 8, mx, bottom, colour::ink, 1.2, " stroke-dasharray=\"4 3\"");
-      c.text(mx, top + 4, "mirror " + display_number(-in.observed), mx > (x0 + x1) / 2 ? "end" : "start",
+      c.line(mx, top + 4, mx, bottom, colour::ink, 1.2, " stroke-dasharray=\"4 3\"");
+      c.text(right_half ? mx - 6 : mx + 6, top + 14, "other side " + display_number(-in.observed), right_half ? "end" : "start",
              colour::muted, " font-size=\"11\"");
     }
   }
-  if (in.statistics.empty()) {
+  if (finite.empty()) {
     c.text((x0 + x1) / 2, (top + bottom) / 2, "no resampled statistics were kept", "middle", colour::muted);
   }
   return c.finish();

@@ -23,6 +23,7 @@ inline constexpr const char* accent = "#c7792b";     // medians, flagged outlier
 inline constexpr const char* interval = "#22303c";   // unadjusted intervals
 inline constexpr const char* adjusted = "#9dc3e2";   // adjusted (simultaneous) intervals
 inline constexpr const char* bar = "#a9bccd";        // histogram bars
+inline constexpr const char* tail = "#dd9f63";       // histogram bars at least as extreme as observed
 }  // namespace colour
 
 // An axis with round tick values covering [low, high] (Heckbert, "Nice numbers for graph

@@ -46,6 +46,7 @@ td:not(.text):not(.words) { white-space: nowrap; }
 tr.contrast-head th { text-align: left; color: var(--ink); font-size: 14px; padding-top: 12px;
                       border-bottom: 1px solid var(--line); }
 .tag { white-space: nowrap; }
+.sub { color: var(--muted); font-size: 11.5px; font-weight: 400; }
 tr.recommended td.text { white-space: nowrap; }
 table.agreement td.text { min-width: 12em; }
 tr.split td { background: var(--accent-soft); }
@@ -188,13 +189,15 @@ void write_results_table(std::ostream& out, const comparison& r, const std::stri
         out << cell(m.simultaneous_low && m.simultaneous_high ? interval_text(*m.simultaneous_low, *m.simultaneous_high)
                                                               : std::string("n/a"));
       }
-      std::string p = display_p(m.p_value);
+      // A Monte Carlo p-value carries its 99% resampling interval on a second line.
+      out << "<td>" << e(display_p(m.p_value));
       if (m.p_interval && !m.exact) {
-        p += " (99%: " + display_p((*m.p_interval)[0]) + " to " + display_p((*m.p_interval)[1]) + ")";
+        out << "<br><span class=\"sub\">99%: " << e(display_p((*m.p_interval)[0])) << " to "
+            << e(display_p((*m.p_interval)[1])) << "</span>";
       } else if (m.exact) {
-        p += " (exact)";
+        out << "<br><span class=\"sub\">exact</span>";
       }
-      out << cell(p);
+      out << "</td>";
       if (adjusted) out << cell(display_p(m.p_adjusted));
       std::string statistic = (m.statistic_name.empty() ? std::string() : m.statistic_name + " = ") + display_number(m.statistic);
       if (m.df) statistic += " (" + display_df(*m.df) + ")";
@@ -401,6 +404,10 @@ void write_html_report(std::ostream& out, const report_content& content) {
            "the data as the null hypothesis allows; the observed value is the dark line.</p>\n";
     for (const auto& f : figures) {
       if (f.id.rfind("null-", 0) == 0) write_figure(out, f);
+    }
+    if (content.nulls_omitted > 0) {
+      out << "<p class=\"note\">" << content.nulls_omitted << " more null distributions are not drawn, to keep the "
+             "report short.</p>\n";
     }
     h.section_end();
   }

@@ -291,8 +291,13 @@ markdown_report write_markdown_report(const report_content& content, const std::
   for (const auto& f : figures) any_null |= f.id.rfind("null-", 0) == 0;
   if (any_null) {
     out << "## Resampling: what chance alone produces\n\n";
+    out << "Each histogram shows the statistic recomputed after reshuffling or resampling the data as the null "
+           "hypothesis allows; the observed value is the dark line.\n\n";
     for (const auto& f : figures) {
       if (f.id.rfind("null-", 0) == 0) link(f, out);
+    }
+    if (content.nulls_omitted > 0) {
+      out << content.nulls_omitted << " more null distributions are not drawn, to keep the report short.\n\n";
     }
   }
 
