@@ -65,8 +65,8 @@ agreement_table method_agreement(const comparison& result, double alpha) {
 
 std::string verdict_words(agreement_verdict v) {
   switch (v) {
-    case agreement_verdict::all_find: return "all agree: difference";
-    case agreement_verdict::none_find: return "all agree: no clear difference";
+    case agreement_verdict::all_find: return "all find a difference";
+    case agreement_verdict::none_find: return "none finds a clear difference";
     case agreement_verdict::split: return "DEPENDS ON METHOD";
     case agreement_verdict::unavailable: return "no method applies";
   }

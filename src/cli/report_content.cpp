@@ -169,7 +169,7 @@ std::vector<report_figure> report_figures(const report_content& content, bool st
     figures.push_back({"forest-" + scale.key,
                        "Each contrast under each method: the estimate (dot) and its " +
                            percent_text(r.options.conf) + " interval (line); the dashed line is " +
-                           display_number(scale.reference) + ", " + scale.reference_label + ".",
+                           plain_number(scale.reference) + ", " + scale.reference_label + ".",
                        svg::forest_plot(input)});
   }
 

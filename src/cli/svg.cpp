@@ -376,7 +376,7 @@ std::string forest_plot(const forest_plot_input& in) {
   draw_value_axis(c, a, x, top, plot_bottom, in.scale);
   const double rx = x(in.reference);
   c.line(rx, top - 6, rx, plot_bottom, colour::ink, 1.2, " stroke-dasharray=\"5 4\"");
-  c.text(rx, top - 10, display_number(in.reference) + " = " + in.reference_label, "middle",
+  c.text(rx, top - 10, plain_number(in.reference) + " = " + in.reference_label, "middle",
          colour::ink, " font-size=\"11.5\"");
 
   double y = top;

@@ -46,9 +46,14 @@ td:not(.text):not(.words) { white-space: nowrap; }
 tr.contrast-head th { text-align: left; color: var(--ink); font-size: 14px; padding-top: 12px;
                       border-bottom: 1px solid var(--line); }
 .tag { white-space: nowrap; }
+table.results { font-size: 12.5px; }
+table.results th, table.results td { padding: 4px 6px; }
 .sub { color: var(--muted); font-size: 11.5px; font-weight: 400; }
 tr.recommended td.text { white-space: nowrap; }
-table.agreement td.text { min-width: 12em; }
+table.agreement { font-size: 12.5px; }
+table.agreement th, table.agreement td { padding: 4px 5px; }
+table.agreement th { overflow-wrap: anywhere; }
+table.agreement td.text { min-width: 9em; }
 tr.split td { background: var(--accent-soft); }
 .mark { display: inline-block; min-width: 1.3em; text-align: center; font-weight: 700; }
 .yes { color: var(--ink); }
