@@ -24,8 +24,8 @@ namespace {
 
 const std::string script_level = "<script>alert(1)</script>";
 
-group_summary summary(std::string level, std::size_t n, double mean, double sd, double median,
-                      double trimmed, double min, double max) {
+group_summary summary(std::string level, std::size_t n, double mean, double sd, double median, double trimmed,
+                      double min, double max) {
   group_summary g;
   g.level = std::move(level);
   g.n = n;
@@ -39,8 +39,8 @@ group_summary summary(std::string level, std::size_t n, double mean, double sd, 
   return g;
 }
 
-method_result t_result(std::string method, double estimate, double se, double t, double df, double p,
-                       double p_adjusted, double low, double high) {
+method_result t_result(std::string method, double estimate, double se, double t, double df, double p, double p_adjusted,
+                       double low, double high) {
   method_result r;
   r.method = std::move(method);
   r.estimand = "mean contrast";
@@ -71,9 +71,8 @@ contrast_result pair(std::string name, std::vector<double> coefficients, double 
 
 // Three invented lettuce plots per treatment... six, six and five head weights (kg per plot).
 report_content example_content() {
-  const std::vector<std::vector<double>> values = {{21.3, 19.8, 22.5, 20.1, 18.9, 21.7},
-                                                   {24.6, 26.1, 23.8, 27.4, 25.0, 31.9},
-                                                   {22.0, 23.1, 21.4, 24.2, 22.8}};
+  const std::vector<std::vector<double>> values = {
+      {21.3, 19.8, 22.5, 20.1, 18.9, 21.7}, {24.6, 26.1, 23.8, 27.4, 25.0, 31.9}, {22.0, 23.1, 21.4, 24.2, 22.8}};
   report_content content;
   comparison& r = content.result;
   dataset& d = r.prepared.data;
@@ -124,18 +123,18 @@ report_content example_content() {
   // contrasts per method (statsmodels multipletests).
   r.contrasts = {
       pair("compost - control", {-1, 1, 0}, 5.7500000000000036,
-           {t_result("pooled", 5.7500000000000036, 1.1637548697321942, 4.9409030626210875, 14,
-                     0.00021709261230175398, 0.0006512778369052619, 3.2539940473998956, 8.246005952600111),
+           {t_result("pooled", 5.7500000000000036, 1.1637548697321942, 4.9409030626210875, 14, 0.00021709261230175398,
+                     0.0006512778369052619, 3.2539940473998956, 8.246005952600111),
             t_result("welch", 5.7500000000000036, 1.3201220482297162, 4.355657878535363, 6.995261998087561,
                      0.0033371269027674707, 0.010011380708302412, 2.62797873183058, 8.872021268169426)}),
       pair("[" + script_level + "] - control", {-1, 0, 1}, 1.9833333333333343,
-           {t_result("pooled", 1.9833333333333343, 1.2205564044762274, 1.6249419740535747, 14,
-                     0.12646720526093147, 0.12646720526093147, -0.634499794839027, 4.601166461505695),
+           {t_result("pooled", 1.9833333333333343, 1.2205564044762274, 1.6249419740535747, 14, 0.12646720526093147,
+                     0.12646720526093147, -0.634499794839027, 4.601166461505695),
             t_result("welch", 1.9833333333333343, 0.7282017424984494, 2.723604212382886, 8.99582136328023,
                      0.023478563859855316, 0.04695712771971063, 0.33590989638328206, 3.6307567702833863)}),
       pair("compost - [" + script_level + "]", {0, 1, -1}, 3.7666666666666693,
-           {t_result("pooled", 3.7666666666666693, 1.2205564044762274, 3.0860242532446045, 14,
-                     0.008052834359956278, 0.016105668719912557, 1.148833538494308, 6.38449979483903),
+           {t_result("pooled", 3.7666666666666693, 1.2205564044762274, 3.0860242532446045, 14, 0.008052834359956278,
+                     0.016105668719912557, 1.148833538494308, 6.38449979483903),
             t_result("welch", 3.7666666666666693, 1.2932302364406902, 2.912603309549525, 6.5145990231933135,
                      0.02447450479075598, 0.04695712771971063, 0.6618615964987002, 6.871471736834638)}),
   };
@@ -164,8 +163,9 @@ report_content example_content() {
   content.variance_tests = {{"levene-median", "", 1.1421203155959412, 2.0, 14.0, 0.3471551966257887}};
   content.diagnostic_facts = {"largest SD / smallest SD = 2.74", "group sizes 6, 6, 5"};
   content.version = "0.1.0";
-  content.command = "contrasta report 'plots <2026>.csv' --group treatment --response 'head weight' "
-                    "--method pooled,welch --adjust holm --seed 20261201 -o report.html";
+  content.command =
+      "contrasta report 'plots <2026>.csv' --group treatment --response 'head weight' "
+      "--method pooled,welch --adjust holm --seed 20261201 -o report.html";
   return content;
 }
 
@@ -283,12 +283,12 @@ TEST_CASE("svg: plots label their marks and escape user text") {
   CHECK(s.find("<script") == std::string::npos);
   CHECK(s.find("&lt;script&gt;alert(1)&lt;/script&gt;") != std::string::npos);
   CHECK(s.find("weight &amp; size") != std::string::npos);
-  CHECK(s.find("row 5") != std::string::npos);        // the outlier carries its row
+  CHECK(s.find("row 5") != std::string::npos);  // the outlier carries its row
   CHECK(s.find("flagged outlier") != std::string::npos);
   CHECK(s.find("mean 4.000") != std::string::npos);
   CHECK(s.find("median 2.500") != std::string::npos);
-  CHECK(s.find("xmlns") == std::string::npos);         // inline SVG in HTML needs none
-  CHECK(count(s, "<circle") >= 5);                      // four points and the outlier ring (legend too)
+  CHECK(s.find("xmlns") == std::string::npos);  // inline SVG in HTML needs none
+  CHECK(count(s, "<circle") >= 5);              // four points and the outlier ring (legend too)
   check_balanced(s);
   in.standalone = true;
   CHECK(svg::observation_plot(in).find("xmlns=\"http://www.w3.org/2000/svg\"") != std::string::npos);
@@ -352,7 +352,7 @@ TEST_CASE("html: self-contained, complete and escaped") {
   if (const char* sample = std::getenv("CONTRASTA_WRITE_SAMPLE")) std::ofstream(sample) << html;
 
   CHECK(html.rfind("<!DOCTYPE html>", 0) == 0);
-  CHECK(count(html, "<svg") >= 2);                    // observations and forest plot
+  CHECK(count(html, "<svg") >= 2);  // observations and forest plot
   CHECK(html.find("id=\"figure-observations\"") != std::string::npos);
   CHECK(html.find("id=\"figure-forest-data\"") != std::string::npos);
   CHECK(html.find("<table class=\"groups\">") != std::string::npos);

@@ -29,7 +29,8 @@ agreement_table method_agreement(const comparison& result, double alpha) {
   for (const auto& m : all) {
     bool any = false;
     for (const auto& c : result.contrasts) {
-      for (const auto& r : c.results) any |= r.method == m && !std::isnan(std::isnan(r.p_adjusted) ? r.p_value : r.p_adjusted);
+      for (const auto& r : c.results)
+        any |= r.method == m && !std::isnan(std::isnan(r.p_adjusted) ? r.p_value : r.p_adjusted);
     }
     (any ? t.methods : t.without_result).push_back(m);
   }
@@ -38,8 +39,7 @@ agreement_table method_agreement(const comparison& result, double alpha) {
     row.contrast = c.spec.name;
     for (const auto& m : t.methods) {
       agreement_cell cell;
-      auto it = std::find_if(c.results.begin(), c.results.end(),
-                             [&](const method_result& r) { return r.method == m; });
+      auto it = std::find_if(c.results.begin(), c.results.end(), [&](const method_result& r) { return r.method == m; });
       if (it != c.results.end()) {
         const double p = std::isnan(it->p_adjusted) ? it->p_value : it->p_adjusted;
         if (!std::isnan(p)) {
@@ -53,10 +53,14 @@ agreement_table method_agreement(const comparison& result, double alpha) {
       }
       row.cells.push_back(cell);
     }
-    if (row.available == 0) row.verdict = agreement_verdict::unavailable;
-    else if (row.finding == row.available) row.verdict = agreement_verdict::all_find;
-    else if (row.finding == 0) row.verdict = agreement_verdict::none_find;
-    else row.verdict = agreement_verdict::split;
+    if (row.available == 0)
+      row.verdict = agreement_verdict::unavailable;
+    else if (row.finding == row.available)
+      row.verdict = agreement_verdict::all_find;
+    else if (row.finding == 0)
+      row.verdict = agreement_verdict::none_find;
+    else
+      row.verdict = agreement_verdict::split;
     t.split_rows += row.verdict == agreement_verdict::split;
     t.rows.push_back(std::move(row));
   }
@@ -65,10 +69,14 @@ agreement_table method_agreement(const comparison& result, double alpha) {
 
 std::string verdict_words(agreement_verdict v) {
   switch (v) {
-    case agreement_verdict::all_find: return "all find a difference";
-    case agreement_verdict::none_find: return "none finds a clear difference";
-    case agreement_verdict::split: return "DEPENDS ON METHOD";
-    case agreement_verdict::unavailable: return "no method applies";
+    case agreement_verdict::all_find:
+      return "all find a difference";
+    case agreement_verdict::none_find:
+      return "none finds a clear difference";
+    case agreement_verdict::split:
+      return "DEPENDS ON METHOD";
+    case agreement_verdict::unavailable:
+      return "no method applies";
   }
   return "";
 }
@@ -82,8 +90,10 @@ std::size_t width_of(const std::string& s) {
 void pad(std::ostream& out, const std::string& s, std::size_t width, bool right) {
   const std::size_t w = width_of(s);
   const std::string fill(width > w ? width - w : 0, ' ');
-  if (right) out << fill << s;
-  else out << s << fill;
+  if (right)
+    out << fill << s;
+  else
+    out << s << fill;
 }
 }  // namespace
 
@@ -120,8 +130,10 @@ void write_agreement_text(std::ostream& out, const agreement_table& t) {
     for (std::size_t i = 0; i < line.size(); ++i) {
       if (i) out << "  ";
       const bool last = i + 1 == line.size();
-      if (last) out << line[i];
-      else pad(out, line[i], widths[i], i > 0 && r > 0);
+      if (last)
+        out << line[i];
+      else
+        pad(out, line[i], widths[i], i > 0 && r > 0);
     }
     out << '\n';
   }

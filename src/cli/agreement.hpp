@@ -11,8 +11,8 @@
 namespace contrasta::cli {
 
 struct agreement_cell {
-  bool available = false;    // the method ran on this contrast and gave a p-value
-  double p = 0;              // adjusted p-value (equals the raw one with no adjustment)
+  bool available = false;  // the method ran on this contrast and gave a p-value
+  double p = 0;            // adjusted p-value (equals the raw one with no adjustment)
   double estimate = 0;
   bool below_alpha = false;  // the method's conclusion: a difference at alpha
 };
@@ -33,12 +33,12 @@ struct agreement_row {
 };
 
 struct agreement_table {
-  std::vector<std::string> methods;          // methods with a p-value for at least one contrast
-  std::vector<std::string> without_result;   // methods that ran but gave no p-value anywhere
+  std::vector<std::string> methods;         // methods with a p-value for at least one contrast
+  std::vector<std::string> without_result;  // methods that ran but gave no p-value anywhere
   std::vector<agreement_row> rows;
   double alpha = 0.05;
-  std::string adjust = "none";   // which p-values the conclusions use
-  std::size_t split_rows = 0;    // contrasts whose conclusion depends on the method
+  std::string adjust = "none";  // which p-values the conclusions use
+  std::size_t split_rows = 0;   // contrasts whose conclusion depends on the method
 };
 
 // Reads the conclusions off the comparison (the p-values are the family step's, adjusted when

@@ -101,28 +101,30 @@ void add_diagnostics(const prepared_data& p, report_content& content) {
                                        level(s.largest_sd_level) + " against " + level(s.smallest_sd_level) + ")");
   }
   if (!std::isnan(s.n_ratio)) {
-    content.diagnostic_facts.push_back("largest n / smallest n = " + display_number(s.n_ratio, 3) + "; smallest group " +
-                                       level(s.smallest_n_level) + " with n = " + std::to_string(s.smallest_n));
+    content.diagnostic_facts.push_back("largest n / smallest n = " + display_number(s.n_ratio, 3) +
+                                       "; smallest group " + level(s.smallest_n_level) +
+                                       " with n = " + std::to_string(s.smallest_n));
   }
   if (s.larger_variances_in_smaller_groups) {
-    content.diagnostic_facts.push_back("the larger variances sit in the smaller groups (correlation of n with variance " +
-                                       display_number(s.size_variance_correlation, 3) +
-                                       "): the pooled t then rejects too often (Box 1954)");
+    content.diagnostic_facts.push_back(
+        "the larger variances sit in the smaller groups (correlation of n with variance " +
+        display_number(s.size_variance_correlation, 3) + "): the pooled t then rejects too often (Box 1954)");
   }
   if (!std::isnan(s.pooled_se_ratio) && s.pooled_se_ratio < 1) {
     content.diagnostic_facts.push_back(
-        "pooled standard error / separate-variances standard error = " + display_number(s.pooled_se_ratio, 3) + " for " +
-        level(s.pooled_se_pair_first) + " against " + level(s.pooled_se_pair_second) +
+        "pooled standard error / separate-variances standard error = " + display_number(s.pooled_se_ratio, 3) +
+        " for " + level(s.pooled_se_pair_first) + " against " + level(s.pooled_se_pair_second) +
         " (below 1: the pooled t is too large for that pair)");
   }
   if (!std::isnan(d.residuals.skewness)) {
-    content.diagnostic_facts.push_back("shape of the standardized residuals: skewness " +
-                                       display_number(d.residuals.skewness, 3) + ", excess kurtosis " +
-                                       display_number(d.residuals.excess_kurtosis, 3) + " (0 and 0 for a normal shape)");
+    content.diagnostic_facts.push_back(
+        "shape of the standardized residuals: skewness " + display_number(d.residuals.skewness, 3) +
+        ", excess kurtosis " + display_number(d.residuals.excess_kurtosis, 3) + " (0 and 0 for a normal shape)");
   }
-  content.diagnostic_facts.push_back(std::to_string(d.ties.distinct_values) + " distinct values; " +
-                                     display_number(d.ties.tied_share * 100, 3) + "% of observations share their value" +
-                                     (d.ties.small_integer_scale ? " (whole numbers on a short scale: treat as discrete)" : ""));
+  content.diagnostic_facts.push_back(
+      std::to_string(d.ties.distinct_values) + " distinct values; " + display_number(d.ties.tied_share * 100, 3) +
+      "% of observations share their value" +
+      (d.ties.small_integer_scale ? " (whole numbers on a short scale: treat as discrete)" : ""));
   content.diagnostic_facts.push_back(std::to_string(d.outliers.size()) + " observation" +
                                      (d.outliers.size() == 1 ? "" : "s") +
                                      " flagged as possible outliers (robust z above 3.5, Iglewicz & Hoaglin 1993)");
@@ -174,9 +176,11 @@ void run_report(const report_settings& s) {
   request.options = make_analysis_options(s.run);
   request.options.trim = s.trim;
   request.options.resamples = s.resamples;
-  request.options.exact = s.exact == "always" ? exact_mode::always : s.exact == "never" ? exact_mode::never : exact_mode::automatic;
+  request.options.exact = s.exact == "always"  ? exact_mode::always
+                          : s.exact == "never" ? exact_mode::never
+                                               : exact_mode::automatic;
   request.options.max_arrangements = s.max_arrangements;
-  request.options.interval = s.interval == "percentile" ? bootstrap_interval::percentile
+  request.options.interval = s.interval == "percentile"    ? bootstrap_interval::percentile
                              : s.interval == "studentized" ? bootstrap_interval::studentized
                                                            : bootstrap_interval::bca;
   request.options.statistic = s.statistic == "raw" ? permutation_statistic::raw : permutation_statistic::studentized;
@@ -215,9 +219,10 @@ void run_report(const report_settings& s) {
 
 void add_report_command(CLI::App& app) {
   auto settings = std::make_shared<report_settings>();
-  auto* cmd = app.add_subcommand(
-      "report", "a self-contained HTML report (or Markdown with SVG figures) of a comparison: data, plots, "
-                "checks, contrasts under each method, method agreement, how to reproduce it");
+  auto* cmd =
+      app.add_subcommand("report",
+                         "a self-contained HTML report (or Markdown with SVG figures) of a comparison: data, plots, "
+                         "checks, contrasts under each method, method agreement, how to reproduce it");
   cmd->footer(
       "Examples:\n"
       "  contrasta report trial.csv --group substrate --response fresh_mass_g -o trial.html\n"
@@ -227,13 +232,15 @@ void add_report_command(CLI::App& app) {
       "With .md, each plot is written as an SVG file beside it (NAME-observations.svg, ...).");
   add_data_options(cmd, settings->data);
   add_contrast_options(cmd, settings->contrasts);
-  cmd->add_option("--method", settings->methods,
-                  "comma list of pooled, welch, trimmed, permutation, bootstrap, rank, mann-whitney, brunner-munzel, dunn; "
-                  "all; auto (the advised method, default)")
+  cmd->add_option(
+         "--method", settings->methods,
+         "comma list of pooled, welch, trimmed, permutation, bootstrap, rank, mann-whitney, brunner-munzel, dunn; "
+         "all; auto (the advised method, default)")
       ->delimiter(',');
-  cmd->add_option("--adjust", settings->adjust,
-                  "multiplicity adjustment over the contrasts: none, bonferroni, holm, sidak, hochberg, bh, by, scheffe, "
-                  "tukey, games-howell, dunnett, maxt (default none)");
+  cmd->add_option(
+      "--adjust", settings->adjust,
+      "multiplicity adjustment over the contrasts: none, bonferroni, holm, sidak, hochberg, bh, by, scheffe, "
+      "tukey, games-howell, dunnett, maxt (default none)");
   cmd->add_option("--trim", settings->trim, "proportion trimmed from each end for trimmed means (default 0.2)");
   cmd->add_option("--resamples", settings->resamples, "Monte Carlo permutations or bootstrap resamples (default 99999)")
       ->check(CLI::Range(std::uint64_t{99}, std::uint64_t{1'000'000'000}));
@@ -247,8 +254,9 @@ void add_report_command(CLI::App& app) {
                   "permutation statistic: studentized (Welch t, default) or raw (the contrast itself)")
       ->check(CLI::IsMember({"studentized", "raw"}));
   add_run_options(cmd, settings->run);
-  cmd->add_option("-o,--output", settings->output,
-                  "the report file: NAME.html (self-contained) or NAME.md (with NAME-*.svg beside it); written atomically")
+  cmd->add_option(
+         "-o,--output", settings->output,
+         "the report file: NAME.html (self-contained) or NAME.md (with NAME-*.svg beside it); written atomically")
       ->required();
   cmd->add_option("--format", settings->format, "html or markdown (default: from the file name)")
       ->check(CLI::IsMember({"html", "markdown"}));

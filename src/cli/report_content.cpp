@@ -36,7 +36,9 @@ std::optional<estimate_scale> scale_of(const method_result& r, const std::string
 
 }  // namespace
 
-bool computed(const method_result& r) { return !std::isnan(r.estimate) || !std::isnan(r.p_value); }
+bool computed(const method_result& r) {
+  return !std::isnan(r.estimate) || !std::isnan(r.p_value);
+}
 
 std::vector<std::pair<std::string, std::string>> methods_without_results(const comparison& result) {
   std::vector<std::pair<std::string, std::string>> out;
@@ -78,9 +80,12 @@ std::vector<std::pair<std::string, std::string>> method_tests(const comparison& 
 
 std::string alternative_words(alternative side) {
   switch (side) {
-    case alternative::two_sided: return "two-sided";
-    case alternative::greater: return "one-sided (greater)";
-    case alternative::less: return "one-sided (less)";
+    case alternative::two_sided:
+      return "two-sided";
+    case alternative::greater:
+      return "one-sided (greater)";
+    case alternative::less:
+      return "one-sided (less)";
   }
   return "";
 }
@@ -124,8 +129,9 @@ std::vector<report_figure> report_figures(const report_content& content, bool st
     obs.groups.push_back(std::move(points));
   }
   figures.push_back({"observations",
-                     "Every observation of " + obs.response + " by group (points; a small vertical "
-                     "spread keeps them apart), with each group's mean and its " +
+                     "Every observation of " + obs.response +
+                         " by group (points; a small vertical "
+                         "spread keeps them apart), with each group's mean and its " +
                          percent_text(obs.conf) + " interval and the median.",
                      svg::observation_plot(obs)});
 
@@ -167,9 +173,9 @@ std::vector<report_figure> report_figures(const report_content& content, bool st
   }
   for (auto& [scale, input] : plots) {
     figures.push_back({"forest-" + scale.key,
-                       "Each contrast under each method: the estimate (dot) and its " +
-                           percent_text(r.options.conf) + " interval (line); the dashed line is " +
-                           plain_number(scale.reference) + ", " + scale.reference_label + ".",
+                       "Each contrast under each method: the estimate (dot) and its " + percent_text(r.options.conf) +
+                           " interval (line); the dashed line is " + plain_number(scale.reference) + ", " +
+                           scale.reference_label + ".",
                        svg::forest_plot(input)});
   }
 
@@ -208,9 +214,10 @@ std::vector<std::string> report_cautions(const report_content& content) {
       "review of a qualified statistician; this report replaces neither.",
   };
   if (content.uses_seed) {
-    out.push_back("Resampling results depend on the seed printed above; rerunning with the "
-                  "reproducing command gives the same numbers, and each Monte Carlo p-value "
-                  "carries a 99% interval for its resampling error.");
+    out.push_back(
+        "Resampling results depend on the seed printed above; rerunning with the "
+        "reproducing command gives the same numbers, and each Monte Carlo p-value "
+        "carries a 99% interval for its resampling error.");
   }
   // Each note once per method, with the contrasts it concerns.
   std::vector<std::pair<std::string, std::vector<std::string>>> notes;
@@ -220,8 +227,10 @@ std::vector<std::string> report_cautions(const report_content& content) {
       for (const auto& note : m.notes) {
         const std::string key = m.method + ": " + note;
         auto it = std::find_if(notes.begin(), notes.end(), [&](const auto& x) { return x.first == key; });
-        if (it == notes.end()) notes.push_back({key, {c.spec.name}});
-        else it->second.push_back(c.spec.name);
+        if (it == notes.end())
+          notes.push_back({key, {c.spec.name}});
+        else
+          it->second.push_back(c.spec.name);
       }
     }
   }
@@ -249,7 +258,8 @@ std::vector<std::string> report_headlines(const report_content& content) {
   std::vector<std::string> out;
   for (std::size_t i = 0; i < r.contrasts.size(); ++i) {
     const auto& c = r.contrasts[i];
-    auto it = std::find_if(c.results.begin(), c.results.end(), [&](const method_result& m) { return m.method == method; });
+    auto it =
+        std::find_if(c.results.begin(), c.results.end(), [&](const method_result& m) { return m.method == method; });
     if (it == c.results.end()) continue;
     const method_result& m = *it;
     const double p = std::isnan(m.p_adjusted) ? m.p_value : m.p_adjusted;
@@ -265,11 +275,14 @@ std::vector<std::string> report_headlines(const report_content& content) {
              display_number(m.ci_high) + (adjusted ? ", not adjusted" : "") + ")";
       }
     }
-    s += "; " + m.method + " " + (r.adjust.method == "none" ? "p" : adjustment_words(r.adjust.method) + "-adjusted p") + " " +
-         (display_p(p).front() == '<' ? "" : "= ") + display_p(p) + ": ";
-    if (std::isnan(p)) s += "no conclusion (no p-value).";
-    else if (p < r.options.alpha) s += "a difference at alpha " + alpha + ".";
-    else s += "no clear difference at alpha " + alpha + ".";
+    s += "; " + m.method + " " + (r.adjust.method == "none" ? "p" : adjustment_words(r.adjust.method) + "-adjusted p") +
+         " " + (display_p(p).front() == '<' ? "" : "= ") + display_p(p) + ": ";
+    if (std::isnan(p))
+      s += "no conclusion (no p-value).";
+    else if (p < r.options.alpha)
+      s += "a difference at alpha " + alpha + ".";
+    else
+      s += "no clear difference at alpha " + alpha + ".";
     if (i < agreement.rows.size() && agreement.rows[i].verdict == agreement_verdict::split) {
       s += " Other methods reach a different conclusion: see the agreement table.";
     }

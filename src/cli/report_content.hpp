@@ -15,17 +15,17 @@
 namespace contrasta::cli {
 
 struct report_level {
-  std::vector<double> values;           // observations in data units, file order
-  std::vector<std::uint64_t> rows;      // input line of each observation
-  std::vector<bool> outlier;            // flagged by the diagnostics (empty: none flagged)
-  double mean_low = not_available;      // interval of the mean at options.conf
+  std::vector<double> values;       // observations in data units, file order
+  std::vector<std::uint64_t> rows;  // input line of each observation
+  std::vector<bool> outlier;        // flagged by the diagnostics (empty: none flagged)
+  double mean_low = not_available;  // interval of the mean at options.conf
   double mean_high = not_available;
 };
 
 // One line of a diagnostics table (a variance test, a normality test per level).
 struct report_test {
   std::string test;
-  std::string level;                    // empty for tests over all levels
+  std::string level;  // empty for tests over all levels
   double statistic = not_available;
   std::optional<double> df1, df2;
   double p_value = not_available;
@@ -52,17 +52,17 @@ struct report_null {
 
 struct report_content {
   comparison result;
-  std::vector<report_level> levels;        // one per level of result.prepared
+  std::vector<report_level> levels;  // one per level of result.prepared
   std::vector<report_test> variance_tests;
   std::vector<report_test> normality_tests;
   std::vector<std::string> diagnostic_facts;  // measured facts in words ("largest SD / smallest SD = 2.4")
   std::vector<report_outlier> outliers;
   std::vector<report_null> nulls;
-  std::size_t nulls_omitted = 0;            // null distributions left out to keep the report short
-  bool diagnostics_available = false;       // false: the build has no diagnostics step yet
+  std::size_t nulls_omitted = 0;       // null distributions left out to keep the report short
+  bool diagnostics_available = false;  // false: the build has no diagnostics step yet
   std::string version;
-  std::string command;                      // the command line that reproduces the report
-  bool uses_seed = false;                   // any resampling method ran
+  std::string command;     // the command line that reproduces the report
+  bool uses_seed = false;  // any resampling method ran
 };
 
 // A finished figure: an id for file names and anchors, a caption, and the SVG text.

@@ -11,11 +11,21 @@ std::string xml_escape(std::string_view text) {
   out.reserve(text.size());
   for (char ch : text) {
     switch (ch) {
-      case '&': out += "&amp;"; break;
-      case '<': out += "&lt;"; break;
-      case '>': out += "&gt;"; break;
-      case '"': out += "&quot;"; break;
-      case '\'': out += "&#39;"; break;
+      case '&':
+        out += "&amp;";
+        break;
+      case '<':
+        out += "&lt;";
+        break;
+      case '>':
+        out += "&gt;";
+        break;
+      case '"':
+        out += "&quot;";
+        break;
+      case '\'':
+        out += "&#39;";
+        break;
       default:
         // Control characters other than tab and newline are not allowed in XML 1.0 at all;
         // a level name that carries one is shown with a visible replacement instead.
@@ -34,16 +44,34 @@ std::string markdown_text(std::string_view text) {
   out.reserve(text.size());
   for (char ch : text) {
     switch (ch) {
-      case '&': out += "&amp;"; break;
-      case '<': out += "&lt;"; break;
-      case '>': out += "&gt;"; break;
-      case '|': out += "\\|"; break;
-      case '\\': case '`': case '*': case '_': case '[': case ']': case '#':
+      case '&':
+        out += "&amp;";
+        break;
+      case '<':
+        out += "&lt;";
+        break;
+      case '>':
+        out += "&gt;";
+        break;
+      case '|':
+        out += "\\|";
+        break;
+      case '\\':
+      case '`':
+      case '*':
+      case '_':
+      case '[':
+      case ']':
+      case '#':
         out += '\\';
         out += ch;
         break;
-      case '\n': case '\r': out += ' '; break;  // a newline would end the table row
-      default: out += ch;
+      case '\n':
+      case '\r':
+        out += ' ';
+        break;  // a newline would end the table row
+      default:
+        out += ch;
     }
   }
   return out;
@@ -93,14 +121,22 @@ std::string display_df(double df) {
   return display_number(df, 4);
 }
 
-std::string percent_text(double proportion) { return plain_number(proportion * 100, 4) + "%"; }
+std::string percent_text(double proportion) {
+  return plain_number(proportion * 100, 4) + "%";
+}
 
 std::string adjustment_words(const std::string& name) {
-  static const std::pair<const char*, const char*> names[] = {
-      {"bonferroni", "Bonferroni"}, {"holm", "Holm"}, {"sidak", "Sidak"}, {"hochberg", "Hochberg"},
-      {"bh", "Benjamini-Hochberg"}, {"by", "Benjamini-Yekutieli"}, {"scheffe", "Scheffe"},
-      {"tukey", "Tukey-Kramer"}, {"games-howell", "Games-Howell"}, {"dunnett", "Dunnett"},
-      {"maxt", "max-T"}};
+  static const std::pair<const char*, const char*> names[] = {{"bonferroni", "Bonferroni"},
+                                                              {"holm", "Holm"},
+                                                              {"sidak", "Sidak"},
+                                                              {"hochberg", "Hochberg"},
+                                                              {"bh", "Benjamini-Hochberg"},
+                                                              {"by", "Benjamini-Yekutieli"},
+                                                              {"scheffe", "Scheffe"},
+                                                              {"tukey", "Tukey-Kramer"},
+                                                              {"games-howell", "Games-Howell"},
+                                                              {"dunnett", "Dunnett"},
+                                                              {"maxt", "max-T"}};
   for (const auto& [option, words] : names) {
     if (name == option) return words;
   }
@@ -124,14 +160,16 @@ std::string fixed_decimals(double value, int decimals) {
 }
 
 std::string shell_quote(std::string_view argument) {
-  const bool plain = !argument.empty() &&
-                     argument.find_first_not_of("abcdefghijklmnopqrstuvwxyzABCDEFGHIJKLMNOPQRSTUVWXYZ"
-                                                "0123456789-_./=:,+@%") == std::string_view::npos;
+  const bool plain = !argument.empty() && argument.find_first_not_of(
+                                              "abcdefghijklmnopqrstuvwxyzABCDEFGHIJKLMNOPQRSTUVWXYZ"
+                                              "0123456789-_./=:,+@%") == std::string_view::npos;
   if (plain) return std::string(argument);
   std::string out = "'";
   for (char ch : argument) {
-    if (ch == '\'') out += "'\\''";
-    else out += ch;
+    if (ch == '\'')
+      out += "'\\''";
+    else
+      out += ch;
   }
   return out + "'";
 }

@@ -60,13 +60,12 @@ std::size_t char_count(const std::string& text) {
 // Appends SVG elements to a buffer; every text argument is escaped here, once.
 class canvas {
  public:
-  canvas(double width, double height, const std::string& label, bool standalone)
-      : width_(width) {
+  canvas(double width, double height, const std::string& label, bool standalone) : width_(width) {
     out_ << "<svg";
     if (standalone) out_ << " xmlns=\"http://www.w3.org/2000/svg\"";
-    out_ << " class=\"plot\" viewBox=\"0 0 " << num(width) << ' ' << num(height) << "\" width=\""
-         << num(width) << "\" height=\"" << num(height) << "\" role=\"img\" aria-label=\""
-         << xml_escape(label) << "\" font-family=\"'DejaVu Sans', 'Liberation Sans', Arial, sans-serif\" font-size=\"12\">\n";
+    out_ << " class=\"plot\" viewBox=\"0 0 " << num(width) << ' ' << num(height) << "\" width=\"" << num(width)
+         << "\" height=\"" << num(height) << "\" role=\"img\" aria-label=\"" << xml_escape(label)
+         << "\" font-family=\"'DejaVu Sans', 'Liberation Sans', Arial, sans-serif\" font-size=\"12\">\n";
     out_ << "<title>" << xml_escape(label) << "</title>\n";
     out_ << "<rect x=\"0\" y=\"0\" width=\"" << num(width) << "\" height=\"" << num(height)
          << "\" fill=\"#ffffff\"/>\n";
@@ -76,28 +75,26 @@ class canvas {
 
   void line(double x1, double y1, double x2, double y2, const char* stroke, double stroke_width,
             const char* extra = "") {
-    out_ << "<line x1=\"" << num(x1) << "\" y1=\"" << num(y1) << "\" x2=\"" << num(x2)
-         << "\" y2=\"" << num(y2) << "\" stroke=\"" << stroke << "\" stroke-width=\""
-         << num(stroke_width) << '"' << extra << "/>\n";
+    out_ << "<line x1=\"" << num(x1) << "\" y1=\"" << num(y1) << "\" x2=\"" << num(x2) << "\" y2=\"" << num(y2)
+         << "\" stroke=\"" << stroke << "\" stroke-width=\"" << num(stroke_width) << '"' << extra << "/>\n";
   }
   void rect(double x, double y, double w, double h, const char* fill, const char* extra = "") {
-    out_ << "<rect x=\"" << num(x) << "\" y=\"" << num(y) << "\" width=\"" << num(std::max(w, 0.0))
-         << "\" height=\"" << num(std::max(h, 0.0)) << "\" fill=\"" << fill << '"' << extra << "/>\n";
+    out_ << "<rect x=\"" << num(x) << "\" y=\"" << num(y) << "\" width=\"" << num(std::max(w, 0.0)) << "\" height=\""
+         << num(std::max(h, 0.0)) << "\" fill=\"" << fill << '"' << extra << "/>\n";
   }
   // A mark with a hover title (the exact value, the row of the data).
-  void circle(double cx, double cy, double r, const char* fill, const char* stroke,
-              double stroke_width, const std::string& title, const char* extra = "") {
-    out_ << "<circle cx=\"" << num(cx) << "\" cy=\"" << num(cy) << "\" r=\"" << num(r)
-         << "\" fill=\"" << fill << "\" stroke=\"" << stroke << "\" stroke-width=\""
-         << num(stroke_width) << '"' << extra;
+  void circle(double cx, double cy, double r, const char* fill, const char* stroke, double stroke_width,
+              const std::string& title, const char* extra = "") {
+    out_ << "<circle cx=\"" << num(cx) << "\" cy=\"" << num(cy) << "\" r=\"" << num(r) << "\" fill=\"" << fill
+         << "\" stroke=\"" << stroke << "\" stroke-width=\"" << num(stroke_width) << '"' << extra;
     if (title.empty()) {
       out_ << "/>\n";
     } else {
       out_ << "><title>" << xml_escape(title) << "</title></circle>\n";
     }
   }
-  void polygon(const std::vector<std::pair<double, double>>& points, const char* fill,
-               const char* stroke = "none", const std::string& title = "") {
+  void polygon(const std::vector<std::pair<double, double>>& points, const char* fill, const char* stroke = "none",
+               const std::string& title = "") {
     out_ << "<polygon points=\"";
     for (std::size_t i = 0; i < points.size(); ++i) {
       out_ << (i ? " " : "") << num(points[i].first) << ',' << num(points[i].second);
@@ -112,8 +109,8 @@ class canvas {
   // anchor: start | middle | end.
   void text(double x, double y, const std::string& content, const char* anchor = "start",
             const char* fill = colour::ink, const char* extra = "", const std::string& title = "") {
-    out_ << "<text x=\"" << num(x) << "\" y=\"" << num(y) << "\" text-anchor=\"" << anchor
-         << "\" fill=\"" << fill << '"' << extra << '>';
+    out_ << "<text x=\"" << num(x) << "\" y=\"" << num(y) << "\" text-anchor=\"" << anchor << "\" fill=\"" << fill
+         << '"' << extra << '>';
     if (!title.empty()) out_ << "<title>" << xml_escape(title) << "</title>";
     out_ << xml_escape(content) << "</text>\n";
   }
@@ -138,8 +135,7 @@ struct scale {
 };
 
 // A horizontal value axis along y = `y` from x0 to x1 with vertical grid lines up to `top`.
-void draw_value_axis(canvas& c, const axis& a, const scale& x, double top, double y,
-                     const std::string& label) {
+void draw_value_axis(canvas& c, const axis& a, const scale& x, double top, double y, const std::string& label) {
   for (double t : a.ticks) {
     const double px = x(t);
     c.line(px, top, px, y, colour::grid, 1);
@@ -154,8 +150,7 @@ void diamond(canvas& c, double cx, double cy, double r, const char* fill, const 
   c.polygon({{cx, cy - r}, {cx + r, cy}, {cx, cy + r}, {cx - r, cy}}, fill, "#ffffff", title);
 }
 
-void interval_with_caps(canvas& c, double x1, double x2, double y, double cap, const char* stroke,
-                        double width) {
+void interval_with_caps(canvas& c, double x1, double x2, double y, double cap, const char* stroke, double width) {
   c.line(x1, y, x2, y, stroke, width);
   c.line(x1, y - cap / 2, x1, y + cap / 2, stroke, width);
   c.line(x2, y - cap / 2, x2, y + cap / 2, stroke, width);
@@ -205,7 +200,8 @@ std::string observation_plot(const observation_plot_input& in) {
   constexpr std::size_t point_limit = 1500;
   std::size_t longest = 4;
   for (const auto& g : in.groups) longest = std::max(longest, char_count(g.level));
-  const double label_width = std::clamp(static_cast<double>(std::min<std::size_t>(longest, 24)) * 7.4 + 24, 90.0, 200.0);
+  const double label_width =
+      std::clamp(static_cast<double>(std::min<std::size_t>(longest, 24)) * 7.4 + 24, 90.0, 200.0);
   const double text_width = 230;
   const double x0 = label_width, x1 = width - text_width - 14;
   const double plot_bottom = top + band_height * static_cast<double>(in.groups.size());
@@ -224,8 +220,10 @@ std::string observation_plot(const observation_plot_input& in) {
   const scale x{a.low, a.high, x0 + 6, x1 - 6};
   const std::string percent = percent_text(in.conf);
 
-  canvas c(width, height, "Every observation of " + in.response + " by group, with the mean, its " +
-                              percent + " interval and the median", in.standalone);
+  canvas c(
+      width, height,
+      "Every observation of " + in.response + " by group, with the mean, its " + percent + " interval and the median",
+      in.standalone);
   // Legend: one sample of each kind of mark, with its meaning in words.
   bool any_outlier = false;
   for (const auto& g : in.groups) any_outlier |= std::find(g.outlier.begin(), g.outlier.end(), true) != g.outlier.end();
@@ -257,8 +255,8 @@ std::string observation_plot(const observation_plot_input& in) {
   for (std::size_t i = 0; i < in.groups.size(); ++i) {
     const auto& g = in.groups[i];
     const double band_top = top + band_height * static_cast<double>(i);
-    c.text(x0 - 12, band_top + 32, shorten(g.level, 24), "end", colour::ink,
-           " font-weight=\"600\" font-size=\"13\"", g.level);
+    c.text(x0 - 12, band_top + 32, shorten(g.level, 24), "end", colour::ink, " font-weight=\"600\" font-size=\"13\"",
+           g.level);
 
     // Median: an upright stroke through the cloud of points, drawn first so that no point hides
     // behind it; it reaches above and below the cloud so that it stays visible.
@@ -289,8 +287,8 @@ std::string observation_plot(const observation_plot_input& in) {
       if (flagged) {
         c.circle(px, py, 3.6, colour::point, "#ffffff", 0.6, title);
         c.circle(px, py, 7, "none", colour::accent, 2, "");
-        c.text(px, band_top + 9, j < g.rows.size() ? "row " + std::to_string(g.rows[j]) : "outlier",
-               "middle", colour::accent, " font-size=\"10.5\" font-weight=\"600\"");
+        c.text(px, band_top + 9, j < g.rows.size() ? "row " + std::to_string(g.rows[j]) : "outlier", "middle",
+               colour::accent, " font-size=\"10.5\" font-weight=\"600\"");
       } else {
         c.circle(px, py, 3.6, colour::point, "#ffffff", 0.6, title, " fill-opacity=\"0.6\"");
       }
@@ -316,8 +314,8 @@ std::string observation_plot(const observation_plot_input& in) {
     if (g.missing > 0) second += " \xC2\xB7 " + std::to_string(g.missing) + " missing";
     c.text(tx, band_top + 45, second, "start", colour::muted, " font-size=\"11.5\"");
     if (drawn < n) {
-      c.text(tx, band_top + 60, std::to_string(drawn) + " of " + std::to_string(n) + " points drawn",
-             "start", colour::muted, " font-size=\"10.5\"");
+      c.text(tx, band_top + 60, std::to_string(drawn) + " of " + std::to_string(n) + " points drawn", "start",
+             colour::muted, " font-size=\"10.5\"");
     }
   }
   return c.finish();
@@ -344,7 +342,8 @@ std::string forest_plot(const forest_plot_input& in) {
       }
     }
   }
-  const double label_width = std::clamp(static_cast<double>(std::min<std::size_t>(longest, 20)) * 7.2 + 40, 110.0, 190.0);
+  const double label_width =
+      std::clamp(static_cast<double>(std::min<std::size_t>(longest, 20)) * 7.2 + 40, 110.0, 190.0);
   const double text_width = 250;
   const double x0 = label_width, x1 = width - text_width - 10;
   const double plot_bottom =
@@ -368,21 +367,23 @@ std::string forest_plot(const forest_plot_input& in) {
   c.text(lx + 32, ly, percent + " interval");
   if (any_adjusted) {
     c.rect(14, ly + 8, 26, 10, colour::adjusted);
-    c.text(48, ly + 17, (in.adjusted_label.empty() ? std::string("adjusted") : in.adjusted_label) +
-                            " interval (holds for all contrasts together)");
+    c.text(48, ly + 17,
+           (in.adjusted_label.empty() ? std::string("adjusted") : in.adjusted_label) +
+               " interval (holds for all contrasts together)");
   }
 
   // Grid, axis, and the line of no difference under the marks.
   draw_value_axis(c, a, x, top, plot_bottom, in.scale);
   const double rx = x(in.reference);
   c.line(rx, top - 6, rx, plot_bottom, colour::ink, 1.2, " stroke-dasharray=\"5 4\"");
-  c.text(rx, top - 10, plain_number(in.reference) + " = " + in.reference_label, "middle",
-         colour::ink, " font-size=\"11.5\"");
+  c.text(rx, top - 10, plain_number(in.reference) + " = " + in.reference_label, "middle", colour::ink,
+         " font-size=\"11.5\"");
 
   double y = top;
   for (std::size_t bi = 0; bi < in.blocks.size(); ++bi) {
     const auto& b = in.blocks[bi];
-    c.text(12, y + 19, shorten(b.contrast, 90), "start", colour::ink, " font-weight=\"700\" font-size=\"13\"", b.contrast);
+    c.text(12, y + 19, shorten(b.contrast, 90), "start", colour::ink, " font-weight=\"700\" font-size=\"13\"",
+           b.contrast);
     y += heading_height;
     for (const auto& r : b.rows) {
       const double cy = y + row_height / 2;
@@ -398,13 +399,17 @@ std::string forest_plot(const forest_plot_input& in) {
         // A one-sided interval runs off the axis: it ends in an arrowhead instead of a cap.
         const double xl = has_low ? x(r.low) : x(a.low), xh = has_high ? x(r.high) : x(a.high);
         c.line(xl, cy, xh, cy, colour::interval, 1.8);
-        if (has_low) c.line(xl, cy - 4.5, xl, cy + 4.5, colour::interval, 1.8);
-        else c.polygon({{xl - 4, cy}, {xl + 3, cy - 4}, {xl + 3, cy + 4}}, colour::interval);
-        if (has_high) c.line(xh, cy - 4.5, xh, cy + 4.5, colour::interval, 1.8);
-        else c.polygon({{xh + 4, cy}, {xh - 3, cy - 4}, {xh - 3, cy + 4}}, colour::interval);
+        if (has_low)
+          c.line(xl, cy - 4.5, xl, cy + 4.5, colour::interval, 1.8);
+        else
+          c.polygon({{xl - 4, cy}, {xl + 3, cy - 4}, {xl + 3, cy + 4}}, colour::interval);
+        if (has_high)
+          c.line(xh, cy - 4.5, xh, cy + 4.5, colour::interval, 1.8);
+        else
+          c.polygon({{xh + 4, cy}, {xh - 3, cy - 4}, {xh - 3, cy + 4}}, colour::interval);
       }
-      std::string label = display_number(r.estimate) + "  [" + display_number(r.low) + ", " +
-                          display_number(r.high) + "]";
+      std::string label =
+          display_number(r.estimate) + "  [" + display_number(r.low) + ", " + display_number(r.high) + "]";
       if (std::isfinite(r.estimate)) {
         c.circle(x(r.estimate), cy, 4.5, r.below_alpha ? colour::ink : "#ffffff", colour::ink, 1.5,
                  b.contrast + ", " + r.method + ": " + label);
@@ -464,9 +469,15 @@ std::string null_histogram(const histogram_input& in) {
     const auto index = static_cast<std::size_t>(std::clamp(b, 0.0, bins - 1));
     bool is_extreme = false;
     switch (in.counted) {
-      case histogram_input::tail::both: is_extreme = std::fabs(v) >= threshold - tolerance; break;
-      case histogram_input::tail::upper: is_extreme = v >= in.observed - tolerance; break;
-      case histogram_input::tail::lower: is_extreme = v <= in.observed + tolerance; break;
+      case histogram_input::tail::both:
+        is_extreme = std::fabs(v) >= threshold - tolerance;
+        break;
+      case histogram_input::tail::upper:
+        is_extreme = v >= in.observed - tolerance;
+        break;
+      case histogram_input::tail::lower:
+        is_extreme = v <= in.observed + tolerance;
+        break;
     }
     (is_extreme ? extreme : ordinary)[index] += 1;
   }
@@ -501,7 +512,8 @@ std::string null_histogram(const histogram_input& in) {
   }
   c.line(x0, bottom, x1, bottom, colour::muted, 1);
   std::string axis_label = "statistic " + in.statistic_name;
-  if (beyond > 0) axis_label += " (" + count_text(static_cast<double>(beyond)) + " beyond the axis are counted in the end bars)";
+  if (beyond > 0)
+    axis_label += " (" + count_text(static_cast<double>(beyond)) + " beyond the axis are counted in the end bars)";
   c.text((x0 + x1) / 2, bottom + 38, axis_label, "middle");
   if (std::isfinite(in.observed)) {
     const double ox = x(in.observed);
@@ -512,8 +524,8 @@ std::string null_histogram(const histogram_input& in) {
     if (both && in.observed != 0) {
       const double mx = x(-in.observed);
       c.line(mx, top + 4, mx, bottom, colour::ink, 1.2, " stroke-dasharray=\"4 3\"");
-      c.text(right_half ? mx - 6 : mx + 6, top + 14, "other side " + display_number(-in.observed), right_half ? "end" : "start",
-             colour::muted, " font-size=\"11\"");
+      c.text(right_half ? mx - 6 : mx + 6, top + 14, "other side " + display_number(-in.observed),
+             right_half ? "end" : "start", colour::muted, " font-size=\"11\"");
     }
   }
   if (finite.empty()) {

@@ -14,16 +14,16 @@ namespace contrasta::cli::svg {
 // vision deficiencies (blue against orange carries every contrast that matters; shape and text
 // carry it again, so no meaning depends on colour alone).
 namespace colour {
-inline constexpr const char* ink = "#22303c";        // text, axes, estimates
-inline constexpr const char* muted = "#66737f";      // secondary text, tick labels
-inline constexpr const char* grid = "#e3e6e8";       // grid lines
-inline constexpr const char* band = "#f3f1ea";       // alternate row background
-inline constexpr const char* point = "#3b6ea8";      // observations
-inline constexpr const char* accent = "#c7792b";     // medians, flagged outliers, tail shading
-inline constexpr const char* interval = "#22303c";   // unadjusted intervals
-inline constexpr const char* adjusted = "#9dc3e2";   // adjusted (simultaneous) intervals
-inline constexpr const char* bar = "#a9bccd";        // histogram bars
-inline constexpr const char* tail = "#dd9f63";       // histogram bars at least as extreme as observed
+inline constexpr const char* ink = "#22303c";       // text, axes, estimates
+inline constexpr const char* muted = "#66737f";     // secondary text, tick labels
+inline constexpr const char* grid = "#e3e6e8";      // grid lines
+inline constexpr const char* band = "#f3f1ea";      // alternate row background
+inline constexpr const char* point = "#3b6ea8";     // observations
+inline constexpr const char* accent = "#c7792b";    // medians, flagged outliers, tail shading
+inline constexpr const char* interval = "#22303c";  // unadjusted intervals
+inline constexpr const char* adjusted = "#9dc3e2";  // adjusted (simultaneous) intervals
+inline constexpr const char* bar = "#a9bccd";       // histogram bars
+inline constexpr const char* tail = "#dd9f63";      // histogram bars at least as extreme as observed
 }  // namespace colour
 
 // An axis with round tick values covering [low, high] (Heckbert, "Nice numbers for graph
@@ -41,9 +41,9 @@ double jitter(std::uint64_t group, std::uint64_t index);
 
 struct group_points {
   std::string level;
-  std::vector<double> values;          // in data units
-  std::vector<std::uint64_t> rows;     // input line of each value (for labels), may be empty
-  std::vector<bool> outlier;           // flagged observations, same length as values or empty
+  std::vector<double> values;                    // in data units
+  std::vector<std::uint64_t> rows;               // input line of each value (for labels), may be empty
+  std::vector<bool> outlier;                     // flagged observations, same length as values or empty
   double mean = 0, mean_low = 0, mean_high = 0;  // the mean and its interval
   double median = 0;
   std::size_t missing = 0;
@@ -51,17 +51,17 @@ struct group_points {
 
 struct observation_plot_input {
   std::vector<group_points> groups;
-  std::string response;  // axis label
-  double conf = 0.95;    // level of the mean intervals (legend text)
+  std::string response;     // axis label
+  double conf = 0.95;       // level of the mean intervals (legend text)
   bool standalone = false;  // a .svg file of its own (adds the XML namespace)
 };
 std::string observation_plot(const observation_plot_input& input);
 
 struct forest_row {
   std::string method;
-  double estimate = 0, low = 0, high = 0;          // unadjusted interval
+  double estimate = 0, low = 0, high = 0;             // unadjusted interval
   std::optional<double> adjusted_low, adjusted_high;  // simultaneous interval, when defined
-  std::string p_text;    // the p-value as shown in the tables
+  std::string p_text;                                 // the p-value as shown in the tables
   bool below_alpha = false;
   bool recommended = false;
 };
@@ -73,19 +73,19 @@ struct forest_block {
 
 struct forest_plot_input {
   std::vector<forest_block> blocks;
-  std::string scale;               // what the axis measures ("difference in yield (kg)")
-  double reference = 0;            // the value of "no difference"
+  std::string scale;     // what the axis measures ("difference in yield (kg)")
+  double reference = 0;  // the value of "no difference"
   std::string reference_label = "no difference";
   double conf = 0.95;
-  double alpha = 0.05;             // filled estimate marks: p below alpha
-  std::string adjusted_label;      // legend words for the adjusted interval ("Holm-adjusted")
+  double alpha = 0.05;         // filled estimate marks: p below alpha
+  std::string adjusted_label;  // legend words for the adjusted interval ("Holm-adjusted")
   bool standalone = false;
 };
 std::string forest_plot(const forest_plot_input& input);
 
 struct histogram_input {
-  std::string title;           // "welch t of compost - control, 9999 reassignments"
-  std::string statistic_name;  // "t"
+  std::string title;               // "welch t of compost - control, 9999 reassignments"
+  std::string statistic_name;      // "t"
   std::vector<double> statistics;  // the resampled statistics
   double observed = 0;
   // Which tail the p-value counts: two-sided counts both (abs >= abs observed).

@@ -79,8 +79,9 @@ footer { color: var(--muted); font-size: 12.5px; text-align: center; margin-top:
 }
 )css";
 
-
-std::string e(const std::string& s) { return xml_escape(s); }
+std::string e(const std::string& s) {
+  return xml_escape(s);
+}
 
 std::string cell(const std::string& s, const char* cls = nullptr) {
   std::string out = cls ? std::string("<td class=\"") + cls + "\">" : std::string("<td>");
@@ -109,8 +110,8 @@ class html {
 };
 
 void write_figure(std::ostream& out, const report_figure& f) {
-  out << "<figure id=\"figure-" << e(f.id) << "\">\n" << f.svg << "<figcaption>" << e(f.caption)
-      << "</figcaption>\n</figure>\n";
+  out << "<figure id=\"figure-" << e(f.id) << "\">\n"
+      << f.svg << "<figcaption>" << e(f.caption) << "</figcaption>\n</figure>\n";
 }
 
 void write_groups_table(std::ostream& out, const comparison& r) {
@@ -143,8 +144,7 @@ void write_contrast_definitions(std::ostream& out, const comparison& r) {
   out << "</tbody></table></div>\n";
 }
 
-void write_test_table(std::ostream& out, const std::vector<report_test>& tests, bool with_level,
-                      const char* cls) {
+void write_test_table(std::ostream& out, const std::vector<report_test>& tests, bool with_level, const char* cls) {
   out << "<div class=\"table-wrap\"><table class=\"" << cls << "\">\n<thead><tr><th>test</th>";
   if (with_level) out << "<th class=\"text\">level</th>";
   out << "<th>statistic</th><th>df</th><th>p-value</th></tr></thead>\n<tbody>\n";
@@ -172,7 +172,8 @@ void write_results_table(std::ostream& out, const comparison& r, const std::stri
   std::vector<std::string> silent;
   for (const auto& w : without) silent.push_back(w.first);
   out << "<div class=\"table-wrap\"><table class=\"results\">\n<thead><tr><th class=\"text\">method</th>"
-         "<th>estimate</th><th>" << e(percent) << " interval</th>";
+         "<th>estimate</th><th>"
+      << e(percent) << " interval</th>";
   if (simultaneous) out << "<th>adjusted interval</th>";
   out << "<th>p-value</th>";
   if (adjusted) out << "<th>" << e(adjustment_words(r.adjust.method)) << "-adjusted p</th>";
@@ -204,7 +205,8 @@ void write_results_table(std::ostream& out, const comparison& r, const std::stri
       }
       out << "</td>";
       if (adjusted) out << cell(display_p(m.p_adjusted));
-      std::string statistic = (m.statistic_name.empty() ? std::string() : m.statistic_name + " = ") + display_number(m.statistic);
+      std::string statistic =
+          (m.statistic_name.empty() ? std::string() : m.statistic_name + " = ") + display_number(m.statistic);
       if (m.df) statistic += " (" + display_df(*m.df) + ")";
       out << cell(statistic) << cell(display_number(m.se)) << "</tr>\n";
     }
@@ -228,20 +230,25 @@ void write_agreement(std::ostream& out, const comparison& r) {
   const std::string alpha = plain_number(t.alpha);
   if (t.split_rows > 0) {
     out << "<p class=\"alert\"><strong>The conclusion depends on the method for " << t.split_rows << " of "
-        << t.rows.size() << " contrasts</strong> (marked \xE2\x96\xB2 below). Read the recommended method and "
+        << t.rows.size()
+        << " contrasts</strong> (marked \xE2\x96\xB2 below). Read the recommended method and "
            "its reasons before deciding.</p>\n";
   } else if (!t.rows.empty()) {
     out << "<p class=\"calm\"><strong>Every method reaches the same conclusion for every contrast</strong> "
-           "at alpha " << e(alpha) << ".</p>\n";
+           "at alpha "
+        << e(alpha) << ".</p>\n";
   }
-  out << "<div class=\"table-wrap\"><table class=\"agreement\">\n<thead><tr><th>contrast</th><th class=\"text\">conclusion</th>";
+  out << "<div class=\"table-wrap\"><table class=\"agreement\">\n<thead><tr><th>contrast</th><th "
+         "class=\"text\">conclusion</th>";
   for (const auto& m : t.methods) out << "<th>" << e(m) << "</th>";
   out << "</tr></thead>\n<tbody>\n";
   for (const auto& row : t.rows) {
     const bool split = row.verdict == agreement_verdict::split;
     out << "<tr" << (split ? " class=\"split\"" : "") << ">" << cell(row.contrast);
     std::string verdict = verdict_words(row.verdict);
-    if (split) verdict = "\xE2\x96\xB2 depends on the method (" + std::to_string(row.finding) + " of " + std::to_string(row.available) + " find a difference)";
+    if (split)
+      verdict = "\xE2\x96\xB2 depends on the method (" + std::to_string(row.finding) + " of " +
+                std::to_string(row.available) + " find a difference)";
     out << "<td class=\"text" << (split ? " verdict-split" : "") << "\">" << e(verdict) << "</td>";
     for (const auto& c : row.cells) {
       if (!c.available) {
@@ -260,7 +267,9 @@ void write_agreement(std::ostream& out, const comparison& r) {
     out << " (see the results above).</p>\n";
   }
   out << "<p class=\"note\">Each cell is the " << e(p_value_words(r)) << " of that method; \xE2\x97\x8F = below alpha "
-      << e(alpha) << " (a difference), \xE2\x97\x8B = not below, \xE2\x80\x93 = no result (the method does not apply to that contrast or could not be computed).</p>\n";
+      << e(alpha)
+      << " (a difference), \xE2\x97\x8B = not below, \xE2\x80\x93 = no result (the method does not apply to that "
+         "contrast or could not be computed).</p>\n";
 }
 
 }  // namespace
@@ -279,20 +288,23 @@ void write_html_report(std::ostream& out, const report_content& content) {
          "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n"
          // Nothing may load or run: even a failure of escaping could not fetch or execute.
          "<meta http-equiv=\"Content-Security-Policy\" content=\"default-src 'none'; style-src 'unsafe-inline'\">\n"
-         "<meta name=\"generator\" content=\"contrasta " << e(content.version) << "\">\n"
+         "<meta name=\"generator\" content=\"contrasta "
+      << e(content.version) << "\">\n"
       << "<title>" << e(title) << "</title>\n<style>" << style_sheet << "</style>\n</head>\n<body>\n<main>\n";
 
-  out << "<header>\n<h1>" << e(title) << "</h1>\n<p>Data: <strong>" << e(d.source) << "</strong> \xC2\xB7 "
-      << n_total << " observations in " << r.prepared.groups.size() << " groups \xC2\xB7 "
-      << r.contrasts.size() << " contrast" << (r.contrasts.size() == 1 ? "" : "s") << " \xC2\xB7 "
-      << e(alternative_words(r.options.side)) << " tests at alpha " << e(plain_number(r.options.alpha))
-      << " \xC2\xB7 contrasta " << e(content.version) << "</p>\n</header>\n";
+  out << "<header>\n<h1>" << e(title) << "</h1>\n<p>Data: <strong>" << e(d.source) << "</strong> \xC2\xB7 " << n_total
+      << " observations in " << r.prepared.groups.size() << " groups \xC2\xB7 " << r.contrasts.size() << " contrast"
+      << (r.contrasts.size() == 1 ? "" : "s") << " \xC2\xB7 " << e(alternative_words(r.options.side))
+      << " tests at alpha " << e(plain_number(r.options.alpha)) << " \xC2\xB7 contrasta " << e(content.version)
+      << "</p>\n</header>\n";
 
   html h(out);
   // At a glance.
   h.section_start("glance", "At a glance", "glance");
   out << "<p>Recommended method: <strong>" << e(advised) << "</strong>"
-      << (advised == r.advice.method || r.advice.method.empty() ? "" : " (the recommended " + e(r.advice.method) + " did not run)")
+      << (advised == r.advice.method || r.advice.method.empty()
+              ? ""
+              : " (the recommended " + e(r.advice.method) + " did not run)")
       << ". Conclusions use the " << e(p_value_words(r)) << ".</p>\n<ul>\n";
   for (const auto& s : report_headlines(content)) out << "<li>" << e(s) << "</li>\n";
   out << "</ul>\n";
@@ -301,8 +313,8 @@ void write_html_report(std::ostream& out, const report_content& content) {
   // The question and the data.
   h.section_start("data", "The question and the data");
   out << "<dl>\n<dt>file</dt><dd>" << e(d.source) << "</dd>\n<dt>groups (column)</dt><dd>"
-      << e(d.group_column.empty() ? std::string("one column per level") : d.group_column) << "</dd>\n<dt>response</dt><dd>"
-      << e(d.response) << "</dd>\n<dt>levels</dt><dd>";
+      << e(d.group_column.empty() ? std::string("one column per level") : d.group_column)
+      << "</dd>\n<dt>response</dt><dd>" << e(d.response) << "</dd>\n<dt>levels</dt><dd>";
   for (std::size_t i = 0; i < d.levels.size(); ++i) out << (i ? ", " : "") << e(d.levels[i]);
   out << "</dd>\n<dt>missing values</dt><dd>" << d.missing_total()
       << (d.missing_total() ? " (left out; counted per level below)" : " (none)") << "</dd>\n</dl>\n";
@@ -313,9 +325,9 @@ void write_html_report(std::ostream& out, const report_content& content) {
   write_groups_table(out, r);
   out << "<p class=\"note\">Overall test of equal means (one-way analysis of variance): F = "
       << e(display_number(r.prepared.anova.f)) << " on " << e(display_df(r.prepared.anova.df_between)) << " and "
-      << e(display_df(r.prepared.anova.df_within)) << " df, p " << (display_p(r.prepared.anova.p_value).front() == '<' ? "" : "= ")
-      << e(display_p(r.prepared.anova.p_value)) << "; residual SD " << e(display_number(r.prepared.anova.residual_sd))
-      << ".</p>\n";
+      << e(display_df(r.prepared.anova.df_within)) << " df, p "
+      << (display_p(r.prepared.anova.p_value).front() == '<' ? "" : "= ") << e(display_p(r.prepared.anova.p_value))
+      << "; residual SD " << e(display_number(r.prepared.anova.residual_sd)) << ".</p>\n";
   h.section_end();
 
   // Every observation.
@@ -325,8 +337,8 @@ void write_html_report(std::ostream& out, const report_content& content) {
     out << "<p>Flagged as possible outliers (robust z above 3.5, Iglewicz &amp; Hoaglin): ";
     for (std::size_t i = 0; i < content.outliers.size(); ++i) {
       const auto& o = content.outliers[i];
-      out << (i ? "; " : "") << e(o.level) << " row " << o.row << " (" << e(display_number(o.value))
-          << ", robust z " << e(display_number(o.robust_z, 3)) << ")";
+      out << (i ? "; " : "") << e(o.level) << " row " << o.row << " (" << e(display_number(o.value)) << ", robust z "
+          << e(display_number(o.robust_z, 3)) << ")";
     }
     out << ". They stay in every analysis; check them against the field or lab record.</p>\n";
   }
@@ -334,7 +346,8 @@ void write_html_report(std::ostream& out, const report_content& content) {
 
   // Diagnostics and recommendation.
   h.section_start("checks", "Checks and the recommended method");
-  out << "<p class=\"calm\">Recommended: <strong>" << e(r.advice.method.empty() ? advised : r.advice.method) << "</strong>";
+  out << "<p class=\"calm\">Recommended: <strong>" << e(r.advice.method.empty() ? advised : r.advice.method)
+      << "</strong>";
   if (!r.advice.interval_method.empty() && r.advice.interval_method != r.advice.method) {
     out << "; for intervals: <strong>" << e(r.advice.interval_method) << "</strong>";
   }
@@ -346,7 +359,8 @@ void write_html_report(std::ostream& out, const report_content& content) {
   }
   if (!r.advice.alternatives.empty()) {
     out << "<p>Also worth reading: ";
-    for (std::size_t i = 0; i < r.advice.alternatives.size(); ++i) out << (i ? ", " : "") << e(r.advice.alternatives[i]);
+    for (std::size_t i = 0; i < r.advice.alternatives.size(); ++i)
+      out << (i ? ", " : "") << e(r.advice.alternatives[i]);
     out << ".</p>\n";
   }
   if (!content.diagnostic_facts.empty()) {
@@ -356,7 +370,8 @@ void write_html_report(std::ostream& out, const report_content& content) {
   }
   if (!r.overall.empty()) {
     out << "<h3>Overall tests</h3>\n<div class=\"table-wrap\"><table class=\"overall\">\n<thead><tr><th>test</th>"
-           "<th>statistic</th><th>df</th><th>p-value</th><th class=\"text\">null hypothesis</th></tr></thead>\n<tbody>\n";
+           "<th>statistic</th><th>df</th><th>p-value</th><th class=\"text\">null "
+           "hypothesis</th></tr></thead>\n<tbody>\n";
     for (const auto& t : r.overall) {
       std::string df = display_df(t.df1) + (t.df2 ? ", " + display_df(*t.df2) : std::string());
       out << "<tr>" << cell(t.test) << cell(display_number(t.statistic)) << cell(df) << cell(display_p(t.p_value))
@@ -387,8 +402,8 @@ void write_html_report(std::ostream& out, const report_content& content) {
   out << "<h3>All results</h3>\n";
   write_results_table(out, r, advised);
   if (r.adjust.method != "none" && !r.adjust.method.empty()) {
-    out << "<p class=\"note\">Adjustment: " << e(adjustment_words(r.adjust.method)) << " over " << r.adjust.family_size << " contrasts"
-        << (r.adjust.protects.empty() ? std::string() : "; " + e(r.adjust.protects)) << ".</p>\n";
+    out << "<p class=\"note\">Adjustment: " << e(adjustment_words(r.adjust.method)) << " over " << r.adjust.family_size
+        << " contrasts" << (r.adjust.protects.empty() ? std::string() : "; " + e(r.adjust.protects)) << ".</p>\n";
   } else {
     out << "<p class=\"note\">No multiplicity adjustment: each p-value and interval holds for its own contrast "
            "only.</p>\n";
@@ -411,7 +426,8 @@ void write_html_report(std::ostream& out, const report_content& content) {
       if (f.id.rfind("null-", 0) == 0) write_figure(out, f);
     }
     if (content.nulls_omitted > 0) {
-      out << "<p class=\"note\">" << content.nulls_omitted << " more null distributions are not drawn, to keep the "
+      out << "<p class=\"note\">" << content.nulls_omitted
+          << " more null distributions are not drawn, to keep the "
              "report short.</p>\n";
     }
     h.section_end();
@@ -434,7 +450,8 @@ void write_html_report(std::ostream& out, const report_content& content) {
   out << "</ul>\n";
   h.section_end();
 
-  out << "<footer>Made with contrasta " << e(content.version) << ". Self-contained: no scripts, no external files.</footer>\n"
+  out << "<footer>Made with contrasta " << e(content.version)
+      << ". Self-contained: no scripts, no external files.</footer>\n"
       << "</main>\n</body>\n</html>\n";
 }
 

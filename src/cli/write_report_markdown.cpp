@@ -10,7 +10,9 @@ namespace contrasta::cli {
 
 namespace {
 
-std::string m(const std::string& s) { return markdown_text(s); }
+std::string m(const std::string& s) {
+  return markdown_text(s);
+}
 
 std::string p_phrase(double p) {
   const std::string t = display_p(p);
@@ -75,12 +77,13 @@ markdown_report write_markdown_report(const report_content& content, const std::
 
   out << "## The question and the data\n\n";
   out << "- file: " << m(d.source) << '\n';
-  out << "- groups (column): " << m(d.group_column.empty() ? std::string("one column per level") : d.group_column) << '\n';
+  out << "- groups (column): " << m(d.group_column.empty() ? std::string("one column per level") : d.group_column)
+      << '\n';
   out << "- response: " << m(d.response) << '\n';
   out << "- levels: ";
   for (std::size_t i = 0; i < d.levels.size(); ++i) out << (i ? ", " : "") << m(d.levels[i]);
-  out << "\n- missing values: " << d.missing_total() << (d.missing_total() ? " (left out; counted per level below)" : " (none)")
-      << "\n\n";
+  out << "\n- missing values: " << d.missing_total()
+      << (d.missing_total() ? " (left out; counted per level below)" : " (none)") << "\n\n";
 
   out << "### Contrasts asked\n\n";
   {
@@ -102,9 +105,9 @@ markdown_report write_markdown_report(const report_content& content, const std::
   header(out, {"level", "n", "missing", "mean", "SD", "median",
                "trimmed mean (" + plain_number(r.options.trim * 100) + "%)", "min", "max"});
   for (const auto& g : r.prepared.groups) {
-    row(out, {m(g.level), std::to_string(g.n), std::to_string(g.n_missing), display_number(g.mean),
-              display_number(g.sd), display_number(g.median), display_number(g.trimmed_mean),
-              display_number(g.min), display_number(g.max)});
+    row(out,
+        {m(g.level), std::to_string(g.n), std::to_string(g.n_missing), display_number(g.mean), display_number(g.sd),
+         display_number(g.median), display_number(g.trimmed_mean), display_number(g.min), display_number(g.max)});
   }
   out << "\nOverall test of equal means (one-way analysis of variance): F = " << display_number(r.prepared.anova.f)
       << " on " << display_df(r.prepared.anova.df_between) << " and " << display_df(r.prepared.anova.df_within)
@@ -135,7 +138,8 @@ markdown_report write_markdown_report(const report_content& content, const std::
   }
   if (!r.advice.alternatives.empty()) {
     out << "Also worth reading: ";
-    for (std::size_t i = 0; i < r.advice.alternatives.size(); ++i) out << (i ? ", " : "") << m(r.advice.alternatives[i]);
+    for (std::size_t i = 0; i < r.advice.alternatives.size(); ++i)
+      out << (i ? ", " : "") << m(r.advice.alternatives[i]);
     out << ".\n\n";
   }
   if (!content.diagnostic_facts.empty()) {
@@ -148,8 +152,8 @@ markdown_report write_markdown_report(const report_content& content, const std::
     header(out, {"test", "statistic", "df", "p-value", "null hypothesis"}, {false, false, false, false, true});
     for (const auto& t : r.overall) {
       row(out, {m(t.test), display_number(t.statistic),
-                display_df(t.df1) + (t.df2 ? ", " + display_df(*t.df2) : std::string()),
-                display_p(t.p_value), m(t.null_hypothesis)});
+                display_df(t.df1) + (t.df2 ? ", " + display_df(*t.df2) : std::string()), display_p(t.p_value),
+                m(t.null_hypothesis)});
     }
     out << '\n';
   }
@@ -201,7 +205,8 @@ markdown_report write_markdown_report(const report_content& content, const std::
     const auto without = methods_without_results(r);
     for (const auto& c : r.contrasts) {
       for (const auto& x : c.results) {
-        if (std::find_if(without.begin(), without.end(), [&](const auto& w) { return w.first == x.method; }) != without.end()) {
+        if (std::find_if(without.begin(), without.end(), [&](const auto& w) { return w.first == x.method; }) !=
+            without.end()) {
           continue;  // listed once below the table
         }
         const bool rec = x.method == advised;
@@ -274,7 +279,8 @@ markdown_report write_markdown_report(const report_content& content, const std::
                                                     std::to_string(rw.available) + " find a difference)"
                                               : verdict_words(rw.verdict)};
       for (const auto& c : rw.cells) {
-        cells.push_back(c.available ? (c.below_alpha ? "\xE2\x97\x8F " : "\xE2\x97\x8B ") + display_p(c.p) : "\xE2\x80\x93");
+        cells.push_back(c.available ? (c.below_alpha ? "\xE2\x97\x8F " : "\xE2\x97\x8B ") + display_p(c.p)
+                                    : "\xE2\x80\x93");
       }
       row(out, cells);
     }
@@ -284,7 +290,8 @@ markdown_report write_markdown_report(const report_content& content, const std::
       out << " (see the results above).\n";
     }
     out << "\nEach cell is the " << m(p_value_words(r)) << " of that method; \xE2\x97\x8F = below alpha " << alpha
-        << " (a difference), \xE2\x97\x8B = not below, \xE2\x80\x93 = no result (the method does not apply to that contrast or could not be computed).\n\n";
+        << " (a difference), \xE2\x97\x8B = not below, \xE2\x80\x93 = no result (the method does not apply to that "
+           "contrast or could not be computed).\n\n";
   }
 
   bool any_null = false;
@@ -305,8 +312,8 @@ markdown_report write_markdown_report(const report_content& content, const std::
   out << "- contrasta version: " << m(content.version) << '\n';
   out << "- seed: " << r.options.seed
       << (content.uses_seed ? "" : " (no resampling method ran; the seed does not change any number here)") << '\n';
-  out << "- confidence: " << percent << "\n- alpha: " << alpha << "\n- alternative: " << alternative_words(r.options.side)
-      << "\n\n";
+  out << "- confidence: " << percent << "\n- alpha: " << alpha
+      << "\n- alternative: " << alternative_words(r.options.side) << "\n\n";
   if (!content.command.empty()) {
     // A fence longer than any run of backticks in the command keeps it literal.
     std::size_t longest = 0, run = 0;
