@@ -238,7 +238,15 @@ TEST_CASE("svg: nice axis ticks follow Heckbert's 1-2-5 steps") {
   CHECK(a.ticks.back() == doctest::Approx(0.03));
   CHECK(a.decimals == 2);
   CHECK(std::count(a.ticks.begin(), a.ticks.end(), 0.0) == 1);  // exact zero, not 1e-18
+  // Data with many constant leading digits (as NIST StRD SmLs07-09, 1000000000000.4): range
+  // 0.3 -> nice 0.5, step 0.1, from 1000000000000.1 to 1000000000000.4.
+  a = svg::nice_axis(1e12 + 0.1, 1e12 + 0.4, 6);
+  CHECK(a.step == doctest::Approx(0.1));
+  CHECK(a.ticks.size() == 4);
+  CHECK(a.decimals == 1);
   // Degenerate inputs still give a usable axis.
+  a = svg::nice_axis(-1e308, 1e308, 6);
+  CHECK(a.ticks.size() == 2);
   a = svg::nice_axis(5, 5, 6);
   CHECK(a.low < 5);
   CHECK(a.high > 5);
@@ -293,6 +301,18 @@ TEST_CASE("svg: plots label their marks and escape user text") {
   in.standalone = true;
   CHECK(svg::observation_plot(in).find("xmlns=\"http://www.w3.org/2000/svg\"") != std::string::npos);
   CHECK(svg::observation_plot(in) == svg::observation_plot(in));  // deterministic
+
+  // Long tick labels are thinned so that they cannot overlap: six ticks (step 0.2) of 15
+  // characters, about 87 px apart, leave room for every second label only: 3 of 6 shown.
+  svg::observation_plot_input wide;
+  wide.response = "mass";
+  svg::group_points big;
+  big.level = "a";
+  big.values = {1e12 + 0.01, 1e12 + 0.99};
+  big.mean = big.mean_low = big.mean_high = big.median = 1e12 + 0.5;
+  wide.groups = {big};
+  const std::string ws = svg::observation_plot(wide);
+  CHECK(count(ws, ">1000000000000.") == 3);
 
   svg::histogram_input h;
   h.title = "t of " + script_level;

@@ -136,14 +136,20 @@ struct scale {
 
 // A horizontal value axis along y = `y` from x0 to x1 with vertical grid lines up to `top`.
 void draw_value_axis(canvas& c, const axis& a, const scale& x, double top, double y, const std::string& label) {
-  for (double t : a.ticks) {
-    const double px = x(t);
+  // Long tick labels (data with many leading digits) are thinned so that they never overlap.
+  std::size_t longest = 1;
+  for (double t : a.ticks) longest = std::max(longest, fixed_decimals(t, a.decimals).size());
+  const double spacing = a.ticks.size() > 1 ? std::fabs(x(a.ticks[1]) - x(a.ticks[0])) : 1e9;
+  const auto every =
+      static_cast<std::size_t>(std::max(1.0, std::ceil((static_cast<double>(longest) * 7.2 + 8) / spacing)));
+  for (std::size_t i = 0; i < a.ticks.size(); ++i) {
+    const double t = a.ticks[i], px = x(t);
     c.line(px, top, px, y, colour::grid, 1);
     c.line(px, y, px, y + 5, colour::muted, 1);
-    c.text(px, y + 18, fixed_decimals(t, a.decimals), "middle", colour::muted);
+    if (i % every == 0) c.text(px, y + 18, fixed_decimals(t, a.decimals), "middle", colour::muted);
   }
   c.line(x(a.low), y, x(a.high), y, colour::muted, 1);
-  c.text((x(a.low) + x(a.high)) / 2, y + 36, label, "middle", colour::ink, " font-size=\"12.5\"");
+  if (!label.empty()) c.text((x(a.low) + x(a.high)) / 2, y + 36, label, "middle", colour::ink, " font-size=\"12.5\"");
 }
 
 void diamond(canvas& c, double cx, double cy, double r, const char* fill, const std::string& title) {
@@ -171,12 +177,21 @@ axis nice_axis(double low, double high, int target_ticks) {
     high += pad;
   }
   if (target_ticks < 2) target_ticks = 2;
+  if (!std::isfinite(high - low)) {  // a span beyond the double range: just the two ends
+    a.low = low;
+    a.high = high;
+    a.step = high / 2 - low / 2;
+    a.ticks = {low, high};
+    a.decimals = 0;
+    return a;
+  }
   const double range = nice_number(high - low, false);
   a.step = nice_number(range / (target_ticks - 1), true);
   a.low = std::floor(low / a.step) * a.step;
   a.high = std::ceil(high / a.step) * a.step;
   // Ticks are computed as low + i * step from integers, so they carry no accumulated drift.
-  const auto count = static_cast<long>(std::llround((a.high - a.low) / a.step));
+  const double steps = std::round((a.high - a.low) / a.step);
+  const long count = steps >= 0 && steps <= 1000 ? static_cast<long>(steps) : 1;
   for (long i = 0; i <= count; ++i) {
     double t = a.low + static_cast<double>(i) * a.step;
     if (std::fabs(t) < a.step * 1e-9) t = 0;
@@ -506,11 +521,7 @@ std::string null_histogram(const histogram_input& in) {
     }
   }
   // Axis.
-  for (double t : a.ticks) {
-    c.line(x(t), bottom, x(t), bottom + 5, colour::muted, 1);
-    c.text(x(t), bottom + 18, fixed_decimals(t, a.decimals), "middle", colour::muted);
-  }
-  c.line(x0, bottom, x1, bottom, colour::muted, 1);
+  draw_value_axis(c, a, x, bottom, bottom, "");
   std::string axis_label = "statistic " + in.statistic_name;
   if (beyond > 0)
     axis_label += " (" + count_text(static_cast<double>(beyond)) + " beyond the axis are counted in the end bars)";
