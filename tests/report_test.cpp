@@ -412,6 +412,25 @@ TEST_CASE("html: self-contained, complete and escaped") {
   }
 }
 
+TEST_CASE("html: simultaneous intervals are drawn behind the plain ones and tabled") {
+  report_content content = example_content();
+  // Bonferroni-type simultaneous interval for the first Welch result: estimate +- t(1 - 0.05/6,
+  // 6.995) SE with t = 3.128176 (scipy.stats.t.ppf(1 - 0.05/6, 6.995261998087561)).
+  method_result& w = content.result.contrasts[0].results[1];
+  w.simultaneous_low = 5.7500000000000036 - 3.128176473340532 * 1.3201220482297162;
+  w.simultaneous_high = 5.7500000000000036 + 3.128176473340532 * 1.3201220482297162;
+  std::ostringstream out;
+  write_html_report(out, content);
+  const std::string html = out.str();
+  CHECK(html.find("Holm-adjusted interval (holds for all contrasts together)") != std::string::npos);
+  CHECK(html.find("<th>adjusted interval</th>") != std::string::npos);
+  CHECK(html.find(display_number(*w.simultaneous_low) + " to " + display_number(*w.simultaneous_high)) !=
+        std::string::npos);
+  // The headline then quotes the adjusted interval, which matches the adjusted p-value.
+  CHECK(html.find("Holm-adjusted 95% interval " + display_number(*w.simultaneous_low)) != std::string::npos);
+  if (const char* sample = std::getenv("CONTRASTA_WRITE_SAMPLE_ADJUSTED")) std::ofstream(sample) << html;
+}
+
 TEST_CASE("html: null distributions of resampling methods get histograms") {
   report_content content = example_content();
   report_null n;

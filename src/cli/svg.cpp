@@ -337,7 +337,7 @@ std::string observation_plot(const observation_plot_input& in) {
 }
 
 std::string forest_plot(const forest_plot_input& in) {
-  constexpr double width = 780, row_height = 26, heading_height = 28, top = 58;
+  constexpr double width = 780, row_height = 26, heading_height = 28;
   std::size_t longest = 6;
   bool any_adjusted = false;
   double low = in.reference, high = in.reference;
@@ -357,6 +357,7 @@ std::string forest_plot(const forest_plot_input& in) {
       }
     }
   }
+  const double top = any_adjusted ? 76 : 58;  // room for the second legend line
   const double label_width =
       std::clamp(static_cast<double>(std::min<std::size_t>(longest, 20)) * 7.2 + 40, 110.0, 190.0);
   const double text_width = 250;
@@ -397,6 +398,8 @@ std::string forest_plot(const forest_plot_input& in) {
   double y = top;
   for (std::size_t bi = 0; bi < in.blocks.size(); ++bi) {
     const auto& b = in.blocks[bi];
+    // The heading sits on a band of its own, over the grid, so that lines never cross its text.
+    c.rect(0, y + 3, width, heading_height - 4, colour::band);
     c.text(12, y + 19, shorten(b.contrast, 90), "start", colour::ink, " font-weight=\"700\" font-size=\"13\"",
            b.contrast);
     y += heading_height;
