@@ -399,8 +399,6 @@ void write_html_report(std::ostream& out, const report_content& content) {
   for (const auto& f : figures) {
     if (f.id.rfind("forest-", 0) == 0) write_figure(out, f);
   }
-  out << "<h3>All results</h3>\n";
-  write_results_table(out, r, advised);
   if (r.adjust.method != "none" && !r.adjust.method.empty()) {
     out << "<p class=\"note\">Adjustment: " << e(adjustment_words(r.adjust.method)) << " over " << r.adjust.family_size
         << " contrasts" << (r.adjust.protects.empty() ? std::string() : "; " + e(r.adjust.protects)) << ".</p>\n";
@@ -413,6 +411,11 @@ void write_html_report(std::ostream& out, const report_content& content) {
   // Agreement.
   h.section_start("agreement", "Do the methods agree?");
   write_agreement(out, r);
+  h.section_end();
+
+  // Every number of every method.
+  h.section_start("results", "All results in detail");
+  write_results_table(out, r, advised);
   h.section_end();
 
   // Null distributions.

@@ -190,6 +190,48 @@ markdown_report write_markdown_report(const report_content& content, const std::
   for (const auto& f : figures) {
     if (f.id.rfind("forest-", 0) == 0) link(f, out);
   }
+  if (adjusted) {
+    out << "Adjustment: " << m(adjustment_words(r.adjust.method)) << " over " << r.adjust.family_size << " contrasts"
+        << (r.adjust.protects.empty() ? std::string() : "; " + m(r.adjust.protects)) << ".\n\n";
+  } else {
+    out << "No multiplicity adjustment: each p-value and interval holds for its own contrast only.\n\n";
+  }
+
+  out << "## Do the methods agree?\n\n";
+  {
+    const agreement_table t = method_agreement(r, r.options.alpha);
+    if (t.split_rows > 0) {
+      out << "> **The conclusion depends on the method for " << t.split_rows << " of " << t.rows.size()
+          << " contrasts** (marked \xE2\x96\xB2). Read the recommended method and its reasons before deciding.\n\n";
+    } else if (!t.rows.empty()) {
+      out << "Every method reaches the same conclusion for every contrast at alpha " << alpha << ".\n\n";
+    }
+    std::vector<std::string> h = {"contrast", "conclusion"};
+    for (const auto& x : t.methods) h.push_back(m(x));
+    header(out, h, {false, true});
+    for (const auto& rw : t.rows) {
+      const bool split = rw.verdict == agreement_verdict::split;
+      std::vector<std::string> cells = {(split ? "\xE2\x96\xB2 " : "") + m(rw.contrast),
+                                        split ? "**depends on the method** (" + std::to_string(rw.finding) + " of " +
+                                                    std::to_string(rw.available) + " find a difference)"
+                                              : verdict_words(rw.verdict)};
+      for (const auto& c : rw.cells) {
+        cells.push_back(c.available ? (c.below_alpha ? "\xE2\x97\x8F " : "\xE2\x97\x8B ") + display_p(c.p)
+                                    : "\xE2\x80\x93");
+      }
+      row(out, cells);
+    }
+    if (!t.without_result.empty()) {
+      out << "\nNo p-value from ";
+      for (std::size_t i = 0; i < t.without_result.size(); ++i) out << (i ? ", " : "") << m(t.without_result[i]);
+      out << " (see the results above).\n";
+    }
+    out << "\nEach cell is the " << m(p_value_words(r)) << " of that method; \xE2\x97\x8F = below alpha " << alpha
+        << " (a difference), \xE2\x97\x8B = not below, \xE2\x80\x93 = no result (the method does not apply to that "
+           "contrast or could not be computed).\n\n";
+  }
+
+  out << "## All results in detail\n\n";
   {
     bool simultaneous = false;
     for (const auto& c : r.contrasts) {
@@ -253,47 +295,6 @@ markdown_report write_markdown_report(const report_content& content, const std::
       out << '\n';
     }
   }
-  if (adjusted) {
-    out << "Adjustment: " << m(adjustment_words(r.adjust.method)) << " over " << r.adjust.family_size << " contrasts"
-        << (r.adjust.protects.empty() ? std::string() : "; " + m(r.adjust.protects)) << ".\n\n";
-  } else {
-    out << "No multiplicity adjustment: each p-value and interval holds for its own contrast only.\n\n";
-  }
-
-  out << "## Do the methods agree?\n\n";
-  {
-    const agreement_table t = method_agreement(r, r.options.alpha);
-    if (t.split_rows > 0) {
-      out << "> **The conclusion depends on the method for " << t.split_rows << " of " << t.rows.size()
-          << " contrasts** (marked \xE2\x96\xB2). Read the recommended method and its reasons before deciding.\n\n";
-    } else if (!t.rows.empty()) {
-      out << "Every method reaches the same conclusion for every contrast at alpha " << alpha << ".\n\n";
-    }
-    std::vector<std::string> h = {"contrast", "conclusion"};
-    for (const auto& x : t.methods) h.push_back(m(x));
-    header(out, h, {false, true});
-    for (const auto& rw : t.rows) {
-      const bool split = rw.verdict == agreement_verdict::split;
-      std::vector<std::string> cells = {(split ? "\xE2\x96\xB2 " : "") + m(rw.contrast),
-                                        split ? "**depends on the method** (" + std::to_string(rw.finding) + " of " +
-                                                    std::to_string(rw.available) + " find a difference)"
-                                              : verdict_words(rw.verdict)};
-      for (const auto& c : rw.cells) {
-        cells.push_back(c.available ? (c.below_alpha ? "\xE2\x97\x8F " : "\xE2\x97\x8B ") + display_p(c.p)
-                                    : "\xE2\x80\x93");
-      }
-      row(out, cells);
-    }
-    if (!t.without_result.empty()) {
-      out << "\nNo p-value from ";
-      for (std::size_t i = 0; i < t.without_result.size(); ++i) out << (i ? ", " : "") << m(t.without_result[i]);
-      out << " (see the results above).\n";
-    }
-    out << "\nEach cell is the " << m(p_value_words(r)) << " of that method; \xE2\x97\x8F = below alpha " << alpha
-        << " (a difference), \xE2\x97\x8B = not below, \xE2\x80\x93 = no result (the method does not apply to that "
-           "contrast or could not be computed).\n\n";
-  }
-
   bool any_null = false;
   for (const auto& f : figures) any_null |= f.id.rfind("null-", 0) == 0;
   if (any_null) {
