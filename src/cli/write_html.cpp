@@ -52,8 +52,10 @@ table.results th, table.results td { padding: 4px 6px; }
 tr.recommended td.text { white-space: nowrap; }
 table.agreement { font-size: 12.5px; }
 table.agreement th, table.agreement td { padding: 4px 5px; }
-table.agreement th { overflow-wrap: anywhere; }
 table.agreement td.text { min-width: 9em; }
+table.agreement td.cell, table.agreement td.no { text-align: center; }
+table.agreement th:not(:first-child):not(.text) { text-align: center; }
+table.agreement .mark { font-size: 17px; line-height: 1.1; }
 tr.split td { background: var(--accent-soft); }
 .mark { display: inline-block; min-width: 1.3em; text-align: center; font-weight: 700; }
 .yes { color: var(--ink); }
@@ -255,8 +257,9 @@ void write_agreement(std::ostream& out, const comparison& r) {
         out << "<td class=\"no\" title=\"no result\">\xE2\x80\x93</td>";
         continue;
       }
-      out << "<td><span class=\"mark " << (c.below_alpha ? "yes\">\xE2\x97\x8F" : "no\">\xE2\x97\x8B") << "</span> "
-          << e(display_p(c.p)) << "</td>";
+      // The mark on top, large, so that a row reads at a glance; the p-value beneath it.
+      out << "<td class=\"cell\"><span class=\"mark " << (c.below_alpha ? "yes\">\xE2\x97\x8F" : "no\">\xE2\x97\x8B")
+          << "</span><br><span class=\"sub\">" << e(display_p(c.p)) << "</span></td>";
     }
     out << "</tr>\n";
   }
