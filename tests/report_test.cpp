@@ -220,6 +220,9 @@ TEST_CASE("text: numbers for reading") {
   CHECK(shell_quote("plots <2026>.csv") == "'plots <2026>.csv'");
   CHECK(shell_quote("it's") == "'it'\\''s'");
   CHECK(shell_quote("data/a.csv") == "data/a.csv");
+  // RFC 3986 unreserved characters stay; the rest is %XX (UTF-8 bytes one by one).
+  CHECK(percent_encode("lettuce report-observations.svg") == "lettuce%20report-observations.svg");
+  CHECK(percent_encode("a(b)<c>\xC3\xA9") == "a%28b%29%3Cc%3E%C3%A9");
 }
 
 TEST_CASE("svg: nice axis ticks follow Heckbert's 1-2-5 steps") {
@@ -469,7 +472,7 @@ TEST_CASE("markdown: matches the golden file and links its SVG figures") {
   CHECK(md.figures[0].first == "lettuce report-observations.svg");
   CHECK(md.figures[1].first == "lettuce report-forest-data.svg");
   for (const auto& [name, svg_text] : md.figures) {
-    CHECK(md.markdown.find("](<" + name + ">)") != std::string::npos);
+    CHECK(md.markdown.find("](" + percent_encode(name) + ")") != std::string::npos);
     CHECK(svg_text.find("xmlns=\"http://www.w3.org/2000/svg\"") != std::string::npos);
     check_balanced(svg_text);
   }

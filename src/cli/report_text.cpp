@@ -1,6 +1,7 @@
 #include "cli/report_text.hpp"
 
 #include <algorithm>
+#include <cctype>
 #include <cmath>
 #include <cstdio>
 
@@ -157,6 +158,22 @@ std::string count_text(double count) {
 std::string fixed_decimals(double value, int decimals) {
   if (!std::isfinite(value)) return display_number(value);
   return printf_text("%.*f", decimals < 0 ? 0 : decimals, value);
+}
+
+std::string percent_encode(std::string_view name) {
+  static const char* hex = "0123456789ABCDEF";
+  std::string out;
+  for (char ch : name) {
+    const auto byte = static_cast<unsigned char>(ch);
+    if (std::isalnum(byte) || ch == '-' || ch == '.' || ch == '_' || ch == '~') {
+      out += ch;
+    } else {
+      out += '%';
+      out += hex[byte >> 4];
+      out += hex[byte & 15];
+    }
+  }
+  return out;
 }
 
 std::string shell_quote(std::string_view argument) {

@@ -44,6 +44,10 @@ std::string count_text(double count);
 // A number with a fixed count of decimals (tick labels, where a column of labels must line up).
 std::string fixed_decimals(double value, int decimals);
 
+// Percent-encodes a relative file name for a link target: unreserved characters of RFC 3986
+// (letters, digits, - . _ ~) stay, every other byte becomes %XX.
+std::string percent_encode(std::string_view name);
+
 // Quotes one argument for a POSIX shell when it needs quoting (the reproducing command).
 std::string shell_quote(std::string_view argument);
 

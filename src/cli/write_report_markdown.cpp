@@ -55,9 +55,10 @@ markdown_report write_markdown_report(const report_content& content, const std::
   auto link = [&](const report_figure& f, std::ostream& out) {
     const std::string file = figure_stem + "-" + f.id + ".svg";
     report.figures.emplace_back(file, f.svg);
-    // The file name is built from the output name the user chose: escape it for the link text
-    // and keep the target as written (angle brackets allow spaces in the target).
-    out << "![" << m(f.caption) << "](<" << file << ">)\n\n";
+    // The file name comes from the output name the user chose: the link target percent-encodes
+    // every byte outside the URL-safe set (RFC 3986), so spaces, brackets or quotes in it can
+    // neither break the link nor inject markup.
+    out << "![" << m(f.caption) << "](" << percent_encode(file) << ")\n\n";
   };
 
   std::ostringstream out;

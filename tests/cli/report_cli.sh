@@ -30,7 +30,7 @@ done
 grep -q -- '--seed 7' "$work/substrate.html" || fail "the reproducing command lacks the seed"
 
 # Markdown: every linked figure exists beside the file and is well-formed XML.
-links=$(grep -o '](<[^>]*>)' "$work/cracker.md" | sed 's/^](<//; s/>)$//')
+links=$(grep -o '](cracker-[^)]*\.svg)' "$work/cracker.md" | sed 's/^](//; s/)$//')
 [[ -n $links ]] || fail "the Markdown report links no figure"
 while IFS= read -r name; do
   [[ -f "$work/$name" ]] || fail "linked figure $name was not written"
