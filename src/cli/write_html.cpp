@@ -76,8 +76,14 @@ footer { color: var(--muted); font-size: 12.5px; text-align: center; margin-top:
 @media print {
   body { background: #fff; font-size: 12px; }
   main { max-width: none; padding: 0; }
-  section { border: none; padding: 0; margin: 14px 0; break-inside: avoid; }
-  figure, table { break-inside: avoid; }
+  section { border: none; padding: 0; margin: 14px 0; }
+  /* Sections flow across pages; a plot, a table row or a heading never splits from what it heads. */
+  figure, tr, .alert, .calm { break-inside: avoid; }
+  h2, h3 { break-after: avoid; }
+  .glance { background: #fff; }
+  .table-wrap { overflow: visible; }
+  table, table.results, table.agreement { font-size: 10px; }
+  table.results th, table.results td { padding: 3px 4px; }
 }
 )css";
 
