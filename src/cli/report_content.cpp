@@ -78,6 +78,16 @@ std::vector<std::pair<std::string, std::string>> method_tests(const comparison& 
   return out;
 }
 
+std::string report_title(const dataset& d) {
+  std::string title = "How " + d.response + " differs between ";
+  if (!d.group_column.empty()) return title + "levels of " + d.group_column;
+  if (d.levels.size() > 4 || d.levels.size() < 2) return title + "the " + std::to_string(d.levels.size()) + " levels";
+  for (std::size_t i = 0; i < d.levels.size(); ++i) {
+    title += (i == 0 ? "" : i + 1 == d.levels.size() ? " and " : ", ") + d.levels[i];
+  }
+  return title;
+}
+
 std::string alternative_words(alternative side) {
   switch (side) {
     case alternative::two_sided:

@@ -101,6 +101,10 @@ std::string not_computed_text(const method_result& r);
 // Each method that ran, with the null hypothesis it tests in words (first seen), in order.
 std::vector<std::pair<std::string, std::string>> method_tests(const comparison& result);
 
+// The heading of a report: "How fresh_mass_g differs between levels of substrate", or for wide
+// files (no group column) "How value differs between soxhlet, ultrasound and microwave".
+std::string report_title(const dataset& d);
+
 // Words for an alternative hypothesis ("two-sided").
 std::string alternative_words(alternative side);
 

@@ -290,8 +290,7 @@ void write_html_report(std::ostream& out, const report_content& content) {
   const std::vector<report_figure> figures = report_figures(content, false);
   std::size_t n_total = 0;
   for (const auto& g : r.prepared.groups) n_total += g.n;
-  const std::string title = "How " + d.response + " differs between levels of " +
-                            (d.group_column.empty() ? std::string("the groups") : d.group_column);
+  const std::string title = report_title(d);
 
   out << "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n"
          "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n"

@@ -64,8 +64,7 @@ markdown_report write_markdown_report(const report_content& content, const std::
   std::ostringstream out;
   std::size_t n_total = 0;
   for (const auto& g : r.prepared.groups) n_total += g.n;
-  out << "# How " << m(d.response) << " differs between levels of "
-      << m(d.group_column.empty() ? std::string("the groups") : d.group_column) << "\n\n";
+  out << "# " << m(report_title(d)) << "\n\n";
   out << "Data: **" << m(d.source) << "**, " << n_total << " observations in " << r.prepared.groups.size()
       << " groups, " << r.contrasts.size() << " contrast" << (r.contrasts.size() == 1 ? "" : "s") << ", "
       << alternative_words(r.options.side) << " tests at alpha " << alpha << ", contrasta " << m(content.version)
