@@ -69,7 +69,7 @@ contrast_result pair(std::string name, std::vector<double> coefficients, double 
   return c;
 }
 
-// Three invented lettuce plots per treatment... six, six and five head weights (kg per plot).
+// An invented lettuce trial: head weight (kg per plot) of six, six and five plots per treatment.
 report_content example_content() {
   const std::vector<std::vector<double>> values = {
       {21.3, 19.8, 22.5, 20.1, 18.9, 21.7}, {24.6, 26.1, 23.8, 27.4, 25.0, 31.9}, {22.0, 23.1, 21.4, 24.2, 22.8}};
