@@ -16,6 +16,9 @@
 #include "cli/svg.hpp"
 #include "cli/write_html.hpp"
 #include "cli/write_report_markdown.hpp"
+#include "contrasta/contrast.hpp"
+#include "contrasta/prepared.hpp"
+#include "contrasta/resample.hpp"
 
 using namespace contrasta;
 using namespace contrasta::cli;
@@ -479,4 +482,26 @@ TEST_CASE("markdown: matches the golden file and links its SVG figures") {
   // Raw HTML passes through Markdown renderers: the level name must arrive escaped.
   CHECK(md.markdown.find("<script") == std::string::npos);
   CHECK(md.markdown.find("&lt;script&gt;alert(1)&lt;/script&gt;") != std::string::npos);
+}
+
+TEST_CASE("null histogram input: the resampled statistics behind the permutation p-value") {
+  // The report draws the engine's joint permutation statistics of one contrast. For 5 + 5
+  // observations every one of the 252 reassignments is enumerated, and the share at least as
+  // extreme as the observed Welch t is scipy's exact p: scipy.stats.permutation_test((b, a),
+  // |Welch t|, permutation_type="independent", n_resamples=inf, alternative="greater") gives
+  // p = 0.015873015873015872 (= 4/252) and t = 3.826666993832902 (scipy.stats.ttest_ind,
+  // equal_var=False), scipy 1.10.1.
+  const prepared_data p =
+      prepare(make_dataset({"a", "b"}, {{12.1, 13.4, 11.8, 14.2, 12.9}, {14.8, 15.1, 13.9, 16.3, 15.7}}, "yield"));
+  const contrast c = parse_contrast("b - a", p.data.levels);
+  analysis_options o;
+  o.seed = 1;
+  const joint_resampling joint = joint_permutation_statistics(p, std::span<const contrast>(&c, 1), o);
+  REQUIRE(joint.exact);
+  REQUIRE(joint.resamples == 252);
+  REQUIRE(joint.observed.size() == 1);
+  CHECK(joint.observed[0] == doctest::Approx(3.826666993832902).epsilon(1e-12));
+  std::size_t extreme = 0;
+  for (double t : joint.statistics) extreme += std::fabs(t) >= std::fabs(joint.observed[0]) * (1 - 1e-12);
+  CHECK(static_cast<double>(extreme) / 252.0 == doctest::Approx(0.015873015873015872).epsilon(1e-12));
 }

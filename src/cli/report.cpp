@@ -15,6 +15,7 @@
 #include "contrasta/comparison.hpp"
 #include "contrasta/error.hpp"
 #include "contrasta/prepared.hpp"
+#include "contrasta/resample.hpp"
 #include "contrasta/version.hpp"
 #if __has_include("contrasta/diagnostics.hpp")
 #include "contrasta/diagnostics.hpp"
@@ -131,6 +132,41 @@ void add_diagnostics(const prepared_data& p, report_content& content) {
 }
 #endif
 
+// The resampled null distribution behind each permutation and bootstrap result, for the
+// histograms: the engine's joint resampling run on the one contrast, with the same options
+// (seed, resamples, statistic) as the method itself.
+void add_null_distributions(const comparison& result, report_content& content) {
+  constexpr std::size_t most = 24;  // histograms beyond this many would bury the report
+  analysis_options o = result.options;
+  o.progress = {};
+  for (const auto& c : result.contrasts) {
+    for (const auto& m : c.results) {
+      if ((m.method != "permutation" && m.method != "bootstrap") || !computed(m)) continue;
+      if (content.nulls.size() == most) {
+        ++content.nulls_omitted;
+        continue;
+      }
+      try {
+        const std::span<const contrast> one(&c.spec, 1);
+        joint_resampling joint = m.method == "permutation" ? joint_permutation_statistics(result.prepared, one, o)
+                                                           : joint_bootstrap_statistics(result.prepared, one, o);
+        report_null n;
+        n.contrast = c.spec.name;
+        n.method = m.method;
+        n.statistic_name = m.statistic_name.empty() ? std::string("t") : m.statistic_name;
+        n.observed = joint.observed.front();
+        n.statistics = std::move(joint.statistics);
+        n.p_value = m.p_value;
+        n.exact = joint.exact;
+        n.resamples = joint.resamples;
+        content.nulls.push_back(std::move(n));
+      } catch (const analysis_error&) {
+        // The method ran but its null cannot be redrawn here: the histogram is left out.
+      }
+    }
+  }
+}
+
 report_content gather(comparison result) {
   report_content content;
   const dataset& d = result.prepared.data;
@@ -149,6 +185,7 @@ report_content gather(comparison result) {
   for (const auto& c : result.contrasts) {
     for (const auto& m : c.results) content.uses_seed |= m.resamples.has_value();
   }
+  add_null_distributions(result, content);
   content.version = version();
   content.result = std::move(result);
   return content;

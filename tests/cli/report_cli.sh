@@ -39,6 +39,15 @@ while IFS= read -r name; do
 done <<<"$links"
 grep -q '^| rye vs classic |' "$work/cracker.md" || fail "the Markdown report lacks the contrast rows"
 
+# A resampling method brings the histogram of its null distribution (Markdown: its own file).
+"$contrasta" report "$data/substrate_trial.csv" --group substrate --response fresh_mass_g -c 'coir - peat' \
+  --method welch,permutation --resamples 999 --seed 5 --quiet -o "$work/perm.html"
+grep -q 'id="figure-null-1"' "$work/perm.html" || fail "a permutation report has no null histogram"
+grep -q 'observed t = ' "$work/perm.html" || fail "the null histogram does not mark the observed statistic"
+"$contrasta" report "$data/substrate_trial.csv" --group substrate --response fresh_mass_g -c 'coir - peat' \
+  --method permutation --resamples 999 --seed 5 --quiet -o "$work/perm.md"
+[[ -f $work/perm-null-1.svg ]] || fail "the Markdown report did not write its null histogram"
+
 # A drawn seed is written into the reproducing command.
 "$contrasta" report "$data/substrate_trial.csv" --group substrate --response fresh_mass_g --quiet -o "$work/drawn.html"
 grep -qE -- '--seed [0-9]+' "$work/drawn.html" || fail "a drawn seed is missing from the reproducing command"
