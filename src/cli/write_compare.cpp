@@ -352,7 +352,7 @@ void write_comparison_table(std::ostream& out, const comparison& c) {
     }
     t.print(out, "      ");
     for (const auto& r : cr.results) {
-      out << "      " << r.method << " tests: " << r.null_hypothesis;
+      out << "      " << r.method << (r.null_hypothesis.empty() ? ":" : " tests: ") << r.null_hypothesis;
       if (!r.estimand.empty() && r.estimand != "mean contrast") out << " (estimate: " << r.estimand << ")";
       if (r.resamples) out << "; " << *r.resamples << (r.exact ? " arrangements, all enumerated" : " resamples");
       if (r.p_interval && !r.exact)
