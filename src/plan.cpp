@@ -2,6 +2,7 @@
 #include "contrasta/plan.hpp"
 
 #include <algorithm>
+#include <functional>
 #include <cmath>
 #include <limits>
 #include <numeric>
@@ -417,6 +418,100 @@ simulated_power simulate_power(std::span<const double> coefficients, std::span<c
   const double x = static_cast<double>(out.rejections), m = static_cast<double>(simulations);
   out.low = out.rejections == 0 ? 0.0 : boost::math::quantile(detail::beta(x, m - x + 1), 0.005);
   out.high = out.rejections == simulations ? 1.0 : boost::math::quantile(detail::beta(x + 1, m - x), 0.995);
+  return out;
+}
+
+std::string to_string(planning_goal goal) {
+  switch (goal) {
+    case planning_goal::power: return "power";
+    case planning_goal::sample_size: return "sample-size";
+    case planning_goal::allocation: return "allocation";
+    case planning_goal::allocated_total: return "allocated-sample-size";
+  }
+  return "power";
+}
+
+planning_result plan_trial(const planning_request& request) {
+  const std::size_t k = request.levels.size();
+  if (k < 2) throw usage_error("planning needs at least two levels, for example --means \"a=10,b=12\"");
+  if (request.sds.size() != k) throw usage_error("give an anticipated SD for every level (--sd or --sds)");
+  if (!request.means.empty() && request.means.size() != k)
+    throw usage_error("give an anticipated mean for every level (--means)");
+  if (request.contrasts.empty()) throw usage_error("give at least one contrast (-c) or a family (--family)");
+  if (request.simulations > 0 && request.means.empty())
+    throw usage_error("--simulate needs the anticipated means (--means)");
+
+  planning_result out;
+  if (request.test.test == planned_test::pooled &&
+      std::adjacent_find(request.sds.begin(), request.sds.end(), std::not_equal_to<>()) != request.sds.end())
+    out.notes.push_back("the pooled test assumes one common SD; with the unequal SDs given, its power here uses "
+                        "their pooled value; --method welch or --simulate shows what unequal SDs do");
+
+  for (const contrast& c : request.contrasts) {
+    if (c.coefficients.size() != k) throw analysis_error("contrast '" + c.name + "' does not match the levels");
+    contrast_plan row;
+    row.spec = c;
+    switch (request.goal) {
+      case planning_goal::power:
+        if (request.n.size() != k) throw usage_error("give the units per level (--n or --ns)");
+        row.n = request.n;
+        if (!request.means.empty()) row.power = power_of_contrast(c.coefficients, request.means, request.sds, row.n, request.test);
+        break;
+      case planning_goal::sample_size: {
+        const sample_size s = smallest_sample_size(c.coefficients, request.means, request.sds, request.ratios,
+                                                   request.test, request.target_power);
+        row.n = s.n;
+        row.power = s.achieved;
+        row.power_one_less = s.power_one_less;
+        row.reached = s.reached;
+        break;
+      }
+      case planning_goal::allocation:
+        row.n = optimal_allocation(c.coefficients, request.sds, request.total);
+        if (!request.means.empty()) row.power = power_of_contrast(c.coefficients, request.means, request.sds, row.n, request.test);
+        break;
+      case planning_goal::allocated_total: {
+        const allocated_sample_size a = smallest_allocated_total(c.coefficients, request.means, request.sds,
+                                                                 request.test, request.target_power);
+        row.n = a.n;
+        row.power = a.achieved;
+        row.power_one_less = a.power_one_less;
+        row.reached = a.reached;
+        break;
+      }
+    }
+    if (!row.reached)
+      out.notes.push_back("contrast '" + c.name + "': the target power was not reached within the search limit");
+    row.detectable = detectable_contrast(c.coefficients, request.sds, row.n, request.test, request.target_power);
+    if (request.simulations > 0)
+      row.simulated = simulate_power(c.coefficients, request.means, request.sds, row.n, request.test,
+                                     request.simulations, request.seed);
+    out.plans.push_back(std::move(row));
+  }
+
+  if (request.goal == planning_goal::allocation) {
+    if (out.plans.size() > 1)
+      out.notes.push_back("each contrast has its own best allocation of the fixed total; no single allocation is best for all");
+    return out;
+  }
+  if (request.goal == planning_goal::power) {
+    out.common_n = request.n;
+  } else {
+    out.common_n.assign(k, 0);
+    std::size_t largest = 0;
+    for (const contrast_plan& row : out.plans) {
+      std::size_t total = 0;
+      for (std::size_t i = 0; i < k; ++i) {
+        out.common_n[i] = std::max(out.common_n[i], row.n[i]);
+        total += row.n[i];
+      }
+      if (total > largest) largest = total, out.limiting_contrast = row.spec.name;
+    }
+  }
+  if (!request.means.empty())
+    for (const contrast_plan& row : out.plans)
+      out.power_at_common.push_back(
+          power_of_contrast(row.spec.coefficients, request.means, request.sds, out.common_n, request.test).power);
   return out;
 }
 

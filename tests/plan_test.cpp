@@ -223,3 +223,29 @@ TEST_CASE("designs that cannot be analysed are refused with a clear error") {
   CHECK(power_of_contrast(c, std::vector<double>{1, 1}, sds, std::vector<std::size_t>{5, 5}, {}).power ==
         doctest::Approx(0.05).epsilon(1e-12));
 }
+
+TEST_CASE("several contrasts: the common design serves all of them") {
+  // Property of the design: every contrast's power at the level-wise largest requirement is at
+  // least the target (power grows with every n_i), and the limiting contrast needs that design.
+  planning_request r;
+  r.levels = {"peat", "coir", "bark"};
+  r.means = {31, 34, 29.5};
+  r.sds = {4, 4, 4};
+  contrast a, b;
+  a.name = "coir - peat";
+  a.coefficients = {-1, 1, 0};
+  b.name = "peat - bark";
+  b.coefficients = {1, 0, -1};
+  r.contrasts = {a, b};
+  r.goal = planning_goal::sample_size;
+  r.ratios = {1, 1, 1};
+  r.target_power = 0.8;
+  const planning_result result = plan_trial(r);
+  REQUIRE(result.plans.size() == 2);
+  REQUIRE(result.power_at_common.size() == 2);
+  for (double p : result.power_at_common) CHECK(p >= 0.8);
+  for (std::size_t i = 0; i < 3; ++i)
+    CHECK(result.common_n[i] == std::max(result.plans[0].n[i], result.plans[1].n[i]));
+  // peat - bark (difference 1.5) needs more units than coir - peat (difference 3).
+  CHECK(result.limiting_contrast == "peat - bark");
+}

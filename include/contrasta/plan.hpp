@@ -4,10 +4,12 @@
 #pragma once
 #include <cstddef>
 #include <cstdint>
+#include <optional>
 #include <span>
 #include <string>
 #include <vector>
 
+#include "contrasta/contrast.hpp"
 #include "contrasta/options.hpp"
 
 namespace contrasta {
@@ -120,5 +122,55 @@ struct simulated_power {
 simulated_power simulate_power(std::span<const double> coefficients, std::span<const double> means,
                                std::span<const double> sds, std::span<const std::size_t> n,
                                const power_request& request, std::uint64_t simulations, std::uint64_t seed);
+
+// A whole planning request: anticipated truth, the contrasts that matter, and what to solve for.
+enum class planning_goal {
+  power,              // power (and detectable contrast) of each contrast at the given n
+  sample_size,        // smallest n reaching target_power, keeping the ratios
+  allocation,         // variance-minimising allocation of a fixed total
+  allocated_total,    // smallest total reaching target_power with the variance-minimising allocation
+};
+
+struct planning_request {
+  std::vector<std::string> levels;
+  std::vector<double> means;     // anticipated means, one per level (empty: not given)
+  std::vector<double> sds;       // anticipated SDs, one per level
+  std::vector<contrast> contrasts;
+  power_request test;
+  planning_goal goal = planning_goal::power;
+  std::vector<std::size_t> n;    // goal power: units per level
+  std::vector<double> ratios;    // goal sample_size: allocation ratios (all 1 for equal n)
+  std::size_t total = 0;         // goal allocation
+  double target_power = 0.8;     // sample-size goals, and the detectable contrast
+  std::uint64_t simulations = 0; // > 0: also simulate the engine's test at each design
+  std::uint64_t seed = 0;
+};
+
+struct contrast_plan {
+  contrast spec;
+  std::vector<std::size_t> n;    // the design of this row: given, or what this contrast needs
+  std::optional<contrast_power> power;   // absent without anticipated means
+  double detectable = 0;         // smallest contrast detected with target_power at n
+  double power_one_less = 0;     // sample-size goals: power one step smaller (minimality)
+  bool reached = true;           // sample-size goals: false when the search limit was hit
+  std::optional<simulated_power> simulated;
+};
+
+struct planning_result {
+  std::vector<contrast_plan> plans;
+  // The design that serves every contrast: for sample-size goals the level-wise largest of the
+  // contrasts' own requirements (power grows with every n_i), and for the power goal the given n.
+  // Empty for the fixed-total allocation, where the contrasts compete for the same units.
+  std::vector<std::size_t> common_n;
+  std::vector<double> power_at_common;  // each contrast's power at common_n (means given)
+  std::string limiting_contrast;        // the contrast that needs the most units
+  std::vector<std::string> notes;
+};
+
+// Runs the request contrast by contrast. Throws usage_error / analysis_error with a message
+// that says what to change.
+planning_result plan_trial(const planning_request& request);
+
+std::string to_string(planning_goal goal);
 
 }  // namespace contrasta
