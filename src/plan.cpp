@@ -482,6 +482,9 @@ planning_result plan_trial(const planning_request& request) {
     }
     if (!row.reached)
       out.notes.push_back("contrast '" + c.name + "': the target power was not reached within the search limit");
+    const contrast_power design = power_of_contrast(c.coefficients, {}, request.sds, row.n, request.test);
+    row.se = design.se;
+    row.df = design.df;
     row.detectable = detectable_contrast(c.coefficients, request.sds, row.n, request.test, request.target_power);
     if (request.simulations > 0)
       row.simulated = simulate_power(c.coefficients, request.means, request.sds, row.n, request.test,

@@ -150,6 +150,7 @@ struct contrast_plan {
   contrast spec;
   std::vector<std::size_t> n;    // the design of this row: given, or what this contrast needs
   std::optional<contrast_power> power;   // absent without anticipated means
+  double se = 0, df = 0;         // of the test at n (they do not depend on the means)
   double detectable = 0;         // smallest contrast detected with target_power at n
   double power_one_less = 0;     // sample-size goals: power one step smaller (minimality)
   bool reached = true;           // sample-size goals: false when the search limit was hit

@@ -64,6 +64,8 @@ std::vector<std::pair<std::string, std::string>> parse_assignments(const std::st
                         " \"peat=48,coir=50\"; '" + item + "' is not one");
     std::string level = item.substr(0, eq), value = item.substr(eq + 1);
     while (!level.empty() && level.back() == ' ') level.pop_back();
+    // [brackets] as in contrast expressions are allowed around level names.
+    if (level.size() >= 2 && level.front() == '[' && level.back() == ']') level = level.substr(1, level.size() - 2);
     while (!value.empty() && value.front() == ' ') value.erase(0, 1);
     for (const auto& [seen, v] : out)
       if (seen == level) throw usage_error(option + " names level '" + level + "' twice");
@@ -168,7 +170,11 @@ plan_report make_report(const plan_settings& s) {
   std::vector<std::size_t> pilot_n;
   if (pilot) pilot_n = group_sizes(*pilot);
   r.contrasts = build_contrasts(s.contrasts, r.levels, pilot_n.empty() ? std::vector<std::size_t>(k, 1) : pilot_n);
-  if (r.contrasts.empty()) r.contrasts = build_contrasts({{}, {}, "", {"all-pairs"}, false}, r.levels, std::vector<std::size_t>(k, 1));
+  bool all_pairs_default = false;
+  if (r.contrasts.empty()) {
+    r.contrasts = build_contrasts({{}, {}, "", {"all-pairs"}, false}, r.levels, std::vector<std::size_t>(k, 1));
+    all_pairs_default = true;
+  }
 
   if (s.power) r.target_power = *s.power;
   if (s.total || s.allocate) {
@@ -205,6 +211,7 @@ plan_report make_report(const plan_settings& s) {
     r.seed = s.seed ? *s.seed : std::random_device{}();
     report.simulated = true;
   }
+  if (all_pairs_default) report.result.notes.push_back("no contrast given: planned for all pairs of levels");
   auto notes = std::move(report.result.notes);
   report.result = plan_trial(r);
   report.result.notes.insert(report.result.notes.begin(), notes.begin(), notes.end());
@@ -291,7 +298,7 @@ void write_plan_json(std::ostream& out, const plan_report& report) {
       json.field("contrast_value", p.power->contrast_value).field("se", p.power->se).field("df", p.power->df);
       json.field("ncp", p.power->ncp).field("critical_t", p.power->critical).field("power", p.power->power);
     } else {
-      json.key("contrast_value").null().key("se").null().key("df").null().key("ncp").null();
+      json.key("contrast_value").null().field("se", p.se).field("df", p.df).key("ncp").null();
       json.key("critical_t").null().key("power").null();
     }
     json.field("target_power", r.target_power).field("detectable", p.detectable);
@@ -353,7 +360,7 @@ void write_plan_csv(std::ostream& out, const plan_report& report) {
       out << ',' << csv_number(p.power->contrast_value) << ',' << csv_number(p.power->se) << ',' << csv_number(p.power->df)
           << ',' << csv_number(p.power->ncp) << ',' << csv_number(p.power->power);
     else
-      out << ",,,,,";
+      out << ",," << csv_number(p.se) << ',' << csv_number(p.df) << ",,";
     out << ',' << csv_number(r.target_power) << ',' << csv_number(p.detectable) << ','
         << (searched ? csv_number(p.power_one_less) : "");
     if (p.simulated)
@@ -379,13 +386,12 @@ text_table plan_table(const plan_report& report) {
   const int d = decimals_for(scale / 10);
   for (const contrast_plan& p : report.result.plans) {
     std::vector<std::string> row = {p.spec.name, design_text(r.levels, p.n), std::to_string(total_of(p.n))};
+    row.push_back(general(p.df, 4));
     if (p.power) {
-      row.push_back(general(p.power->df, 4));
       row.push_back(fixed(p.power->ncp, 3));
       row.push_back(fixed(p.power->power, 4) + (p.reached ? "" : " (limit)"));
     } else {
-      row.insert(row.end(), {general(NAN), "-", "-"});
-      row[3] = "-";
+      row.insert(row.end(), {"-", "-"});
     }
     if (searched) row.push_back(fixed(p.power_one_less, 4));
     row.push_back(fixed(p.detectable, d));
@@ -448,7 +454,13 @@ void write_plan_markdown(std::ostream& out, const plan_report& report) {
   out << '\n';
   write_design_lines(out, report, "- ");
   for (const std::string& note : report.result.notes) out << "- note: " << markdown_escape(note) << '\n';
-  out << "\n> " << plan_caution;
+  out << '\n';
+  std::string caution = plan_caution;
+  for (std::size_t start = 0; start < caution.size();) {
+    const std::size_t end = caution.find('\n', start);
+    out << "> " << caution.substr(start, end - start) << '\n';
+    start = end == std::string::npos ? caution.size() : end + 1;
+  }
 }
 
 }  // namespace
