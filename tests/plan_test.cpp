@@ -9,6 +9,7 @@
 
 #include "contrasta/error.hpp"
 #include "contrasta/plan.hpp"
+#include "distributions.hpp"
 #include "fixture.hpp"
 
 using namespace contrasta;
@@ -53,6 +54,20 @@ TEST_CASE("two-group power agrees with statsmodels TTestIndPower") {
   }
   MESSAGE("two-group power, worst relative error vs statsmodels: " << worst);
   CHECK(worst < 1e-6);
+}
+
+TEST_CASE("the noncentral t cdf agrees with an independent quadrature") {
+  // Source: scipy.integrate.quad of E[Phi(t sqrt(X/df) - ncp)], X ~ chi-square(df)
+  // (tests/reference/plan_fixtures.py); scipy.stats.nct wraps Boost like our code, so this is
+  // the check that does not share code with the engine.
+  const fixture::value f = fixture::load("plan_fixtures");
+  double worst = 0;
+  for (const auto& c : f["nct_cdf_quadrature"].arr()) {
+    const double got = boost::math::cdf(detail::non_central_t(c["df"].num(), c["ncp"].num()), c["t"].num());
+    worst = std::max(worst, fixture::relative_error(got, c["cdf"].num()));
+  }
+  MESSAGE("noncentral t cdf, worst relative error vs quadrature: " << worst);
+  CHECK(worst < 1e-10);
 }
 
 TEST_CASE("power of general contrasts agrees with scipy.stats.nct") {

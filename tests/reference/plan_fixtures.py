@@ -7,6 +7,8 @@
 - general contrasts, pooled and Welch: computed here directly with scipy.stats.nct and
   scipy.stats.t, with the Satterthwaite df written out independently of the C++ code.
 - detectable contrast: scipy.optimize.brentq on the same nct power.
+- the noncentral t cdf itself by quadrature, independent of scipy.stats.nct (which in scipy 1.10
+  wraps Boost.Math, the same code the C++ side uses).
 
 Default mode writes tests/data/plan_fixtures.json from a fixed seed; --live --out FILE draws
 fresh random cases (seeded from the clock) for the live differential run.
@@ -18,7 +20,7 @@ import os
 import time
 
 import numpy as np
-from scipy import optimize, stats
+from scipy import integrate, optimize, stats
 from statsmodels.stats.power import TTestIndPower
 
 ALTERNATIVES = {"two-sided": "two-sided", "greater": "larger", "less": "smaller"}
@@ -142,6 +144,27 @@ def detectable_cases(rng, count):
     return out
 
 
+def nct_cdf_quadrature(t, df, ncp):
+    """The noncentral t cdf without scipy's nct (which wraps Boost, as the C++ code does):
+    P((Z + ncp)/sqrt(X/df) <= t) = E[Phi(t sqrt(X/df) - ncp)], X ~ chi-square(df), by adaptive
+    quadrature (scipy.integrate.quad) over the chi-square density."""
+    f = lambda x: stats.norm.cdf(t * np.sqrt(x / df) - ncp) * stats.chi2.pdf(x, df)
+    lo, hi = stats.chi2.ppf(1e-18, df), stats.chi2.isf(1e-18, df)
+    value, _ = integrate.quad(f, lo, hi, epsabs=1e-16, epsrel=1e-13, limit=500, points=[df])
+    return value
+
+
+def quadrature_cases(rng, count):
+    out = []
+    for _ in range(count):
+        df = float(rng.uniform(3, 60))
+        ncp = float(rng.uniform(-4, 4))
+        t = float(ncp + rng.uniform(-2.5, 2.5))
+        out.append({"t": t, "df": df, "ncp": ncp, "cdf": nct_cdf_quadrature(t, df, ncp),
+                    "source": "scipy.integrate.quad of E[Phi(t sqrt(X/df) - ncp)]"})
+    return out
+
+
 def main():
     parser = argparse.ArgumentParser()
     parser.add_argument("--live", action="store_true")
@@ -156,6 +179,7 @@ def main():
         "two_group_sample_size": two_group_sample_sizes(rng, count // 2),
         "contrast_power": contrast_cases(rng, count),
         "detectable": detectable_cases(rng, count // 2),
+        "nct_cdf_quadrature": quadrature_cases(rng, count // 2),
     }
     out = args.out or os.path.join(os.path.dirname(__file__), "..", "data", "plan_fixtures.json")
     with open(out, "w") as f:
