@@ -31,6 +31,11 @@ void shuffle_indices(std::span<std::size_t> items, pcg32& engine) {
   }
 }
 
+namespace {
+// Far above any field or panel trial, and small enough that a plan always fits in memory.
+constexpr std::size_t largest_layout = 100'000'000;
+}  // namespace
+
 void check_layout_design(const layout_design& design) {
   if (design.treatments.empty()) throw usage_error("give the treatments, for example --treatments a,b,c");
   if (design.replicates.size() != design.treatments.size())
@@ -42,8 +47,8 @@ void check_layout_design(const layout_design& design) {
     if (name.empty()) throw usage_error("a treatment name is empty; check the commas in --treatments");
     if (!seen.insert(name).second) throw usage_error("treatment '" + name + "' is listed twice");
     if (design.replicates[i] == 0) throw usage_error("treatment '" + name + "' needs at least one replicate");
-    if (design.replicates[i] > std::numeric_limits<std::uint32_t>::max() - total)
-      throw usage_error("the plan has too many units; give fewer than 4294967295 in all");
+    if (design.replicates[i] > largest_layout - total)
+      throw usage_error("the plan has more than " + std::to_string(largest_layout) + " units; give fewer in all");
     total += design.replicates[i];
   }
   if (!design.unit_labels.empty() && design.unit_labels.size() != total)

@@ -7,6 +7,7 @@
 #include <limits>
 #include <numeric>
 #include <queue>
+#include <sstream>
 #include <string>
 
 #include <pcg_random.hpp>
@@ -39,10 +40,27 @@ void check_sizes(std::span<const double> coefficients, std::span<const double> s
     throw analysis_error("give one SD and one n per level of the contrast");
 }
 
+std::string number_words(double x) {
+  std::ostringstream out;
+  out << x;
+  return out.str();
+}
+
 void check_target(double target_power, double alpha) {
   if (!(target_power > alpha && target_power < 1))
-    throw usage_error("the target power must lie between alpha (" + std::to_string(alpha) +
+    throw usage_error("the target power must lie between alpha (" + number_words(alpha) +
                       ") and 1, for example --power 0.8");
+}
+
+// Planning works in double precision with the noncentral t: keep the inputs inside the range
+// where variances and degrees of freedom are representable.
+constexpr std::size_t largest_level_size = 1'000'000'000;
+
+void check_sd(double sd) {
+  if (!(sd > 0) || !std::isfinite(sd)) throw analysis_error("anticipated SDs must be positive numbers");
+  if (sd < 1e-100 || sd > 1e100)
+    throw analysis_error("an anticipated SD of " + number_words(sd) + " is outside the range planning handles; "
+                         "rescale the units (for example grams instead of tonnes)");
 }
 
 // Critical value of the test statistic at level alpha for the alternative.
@@ -86,8 +104,9 @@ contrast_power power_of_contrast(std::span<const double> coefficients, std::span
     if (coefficients[i] != 0 && n[i] == 0)
       throw analysis_error("a level with a non-zero coefficient needs at least one unit");
     if (n[i] == 0) continue;
-    if (!(sds[i] > 0) || !std::isfinite(sds[i]))
-      throw analysis_error("anticipated SDs must be positive numbers");
+    if (n[i] > largest_level_size)
+      throw analysis_error("more than " + std::to_string(largest_level_size) + " units per level is outside the range planning handles");
+    check_sd(sds[i]);
     total += n[i];
     ++levels_in_trial;
     if (!means.empty()) out.contrast_value += coefficients[i] * means[i];
@@ -217,6 +236,8 @@ sample_size smallest_sample_size(std::span<const double> coefficients, std::span
     if (ratios[i] > 0) smallest_ratio = std::min(smallest_ratio, ratios[i]);
   }
   if (std::isinf(smallest_ratio)) throw usage_error("at least one allocation ratio must be positive");
+  for (double r : ratios)
+    if (r / smallest_ratio > 1e6) throw usage_error("allocation ratios that differ by more than a factor of 10^6 are not supported");
 
   auto design = [&](std::size_t base) {
     std::vector<std::size_t> n(ratios.size(), 0);
@@ -252,7 +273,7 @@ std::vector<std::size_t> optimal_allocation(std::span<const double> coefficients
   std::size_t involved = 0;
   for (std::size_t i = 0; i < k; ++i) {
     if (coefficients[i] == 0) continue;
-    if (!(sds[i] > 0) || !std::isfinite(sds[i])) throw analysis_error("anticipated SDs must be positive numbers");
+    check_sd(sds[i]);
     weight[i] = coefficients[i] * coefficients[i] * sds[i] * sds[i];
     ++involved;
   }
@@ -440,6 +461,7 @@ planning_result plan_trial(const planning_request& request) {
   if (request.contrasts.empty()) throw usage_error("give at least one contrast (-c) or a family (--family)");
   if (request.simulations > 0 && request.means.empty())
     throw usage_error("--simulate needs the anticipated means (--means)");
+  if (request.total > largest_level_size) throw usage_error("a total above 10^9 units is outside the range planning handles");
 
   planning_result out;
   if (request.test.test == planned_test::pooled &&
@@ -486,6 +508,10 @@ planning_result plan_trial(const planning_request& request) {
     row.se = design.se;
     row.df = design.df;
     row.detectable = detectable_contrast(c.coefficients, request.sds, row.n, request.test, request.target_power);
+    if (request.simulations > 0 &&
+        static_cast<double>(request.simulations) * static_cast<double>(std::accumulate(row.n.begin(), row.n.end(), std::size_t{0})) > 2e9)
+      throw usage_error("simulating " + std::to_string(request.simulations) + " trials of this size would take too long; "
+                        "lower --simulations (the product of simulations and units should stay below 2e9)");
     if (request.simulations > 0)
       row.simulated = simulate_power(c.coefficients, request.means, request.sds, row.n, request.test,
                                      request.simulations, request.seed);

@@ -138,4 +138,6 @@ TEST_CASE("unit labels must match the number of units; designs are checked") {
   CHECK_THROWS_AS(randomise_layout({{"a", "b"}, {2, 0}, {}, 1}), usage_error);
   CHECK_THROWS_AS(randomise_layout({{}, {}, {}, 1}), usage_error);
   CHECK_THROWS_AS(randomise_layout({{"a", "b"}, {2}, {}, 1}), usage_error);
+  // A plan that cannot fit in memory is refused up front (found with --replicates 4000000000).
+  CHECK_THROWS_AS(randomise_layout({{"a", "b"}, {4'000'000'000, 2}, {}, 1}), usage_error);
 }

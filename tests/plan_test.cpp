@@ -234,6 +234,12 @@ TEST_CASE("designs that cannot be analysed are refused with a clear error") {
   CHECK_THROWS_AS(smallest_sample_size(c, means, sds, std::vector<double>{1, 1}, {}, 0.04), usage_error);
   CHECK_THROWS_AS(smallest_sample_size(c, std::vector<double>{1, 1}, sds, std::vector<double>{1, 1}, {}, 0.8),
                   analysis_error);
+  // Inputs outside the representable range are refused instead of failing inside the noncentral
+  // t (found by trying --n 18446744073709551615 and --sd 1e308 on the command line).
+  CHECK_THROWS_AS(power_of_contrast(c, means, sds, std::vector<std::size_t>{std::size_t(-1), 5}, {}), analysis_error);
+  CHECK_THROWS_AS(power_of_contrast(c, means, std::vector<double>{1e308, 1}, std::vector<std::size_t>{5, 5}, {}), analysis_error);
+  CHECK_THROWS_AS(power_of_contrast(c, means, std::vector<double>{1e-308, 1}, std::vector<std::size_t>{5, 5}, {}), analysis_error);
+  CHECK_THROWS_AS(smallest_sample_size(c, means, sds, std::vector<double>{1, 1e7}, {}, 0.8), usage_error);
   // Zero-effect power equals alpha (the test's size): a fact of any level-alpha test.
   CHECK(power_of_contrast(c, std::vector<double>{1, 1}, sds, std::vector<std::size_t>{5, 5}, {}).power ==
         doctest::Approx(0.05).epsilon(1e-12));
