@@ -54,19 +54,18 @@ effect_size_result effect_sizes(const prepared_data& p, const contrast& c, const
   }
 
   const std::size_t k = p.groups.size();
-  double sum_abs = 0, sum_scale = 0, sum_coefficients = 0;
+  double sum_abs = 0, sum_coefficients = 0;
   for (std::size_t i = 0; i < c.coefficients.size() && i < k; ++i) {
     sum_abs += std::abs(c.coefficients[i]);
     sum_coefficients += c.coefficients[i];
   }
-  sum_scale = sum_abs;
   if (c.coefficients.size() != k || !(sum_abs > 0)) {
     out.notes.push_back("no effect size: the contrast does not match the levels");
     out.scale = nan;
     out.scaled_contrast = nan;
     return out;
   }
-  out.scale = 2 / sum_scale;
+  out.scale = 2 / sum_abs;
   out.scaled_coefficients.resize(k);
   for (std::size_t i = 0; i < k; ++i) out.scaled_coefficients[i] = out.scale * c.coefficients[i];
   if (out.scale != 1)

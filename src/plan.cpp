@@ -177,12 +177,9 @@ namespace {
 
 // Power of a candidate design, or NaN when that design cannot be analysed with the test.
 double power_or_nan(std::span<const double> coefficients, std::span<const double> means,
-                    std::span<const double> sds, std::span<const std::size_t> n, const power_request& request,
-                    contrast_power* out = nullptr) {
+                    std::span<const double> sds, std::span<const std::size_t> n, const power_request& request) {
   try {
-    contrast_power p = power_of_contrast(coefficients, means, sds, n, request);
-    if (out) *out = p;
-    return p.power;
+    return power_of_contrast(coefficients, means, sds, n, request).power;
   } catch (const analysis_error&) {
     return nan;
   }

@@ -133,6 +133,12 @@ plan_report make_report(const plan_settings& s) {
   if (r.levels.empty())
     throw usage_error("name the levels: give --means \"a=10,b=12\" (or --sds, --ns, --levels, or --from-data FILE)");
   const std::size_t k = r.levels.size();
+  if (k < 2) {
+    std::string listed;
+    for (const auto& level : r.levels) listed += (listed.empty() ? "'" : ", '") + level + "'";
+    throw usage_error("planning needs at least two levels, but only " + listed +
+                      " was named; write LEVEL=VALUE pairs separated by commas");
+  }
 
   if (s.means == "pilot") {
     if (!pilot) throw usage_error("--means pilot takes the means from --from-data FILE; give the file");
