@@ -15,7 +15,7 @@ double mean_contrast(const prepared_data& p, const contrast& c) {
   double psi = 0;
   for (std::size_t i = 0; i < c.coefficients.size(); ++i)
     if (c.coefficients[i] != 0) psi += c.coefficients[i] * p.groups[i].centred_mean;
-  return psi + p.data.centre * c.coefficient_sum();
+  return psi + c.location_term(p.data.centre);
 }
 
 void require_levels(const prepared_data& p, const contrast& c) {
@@ -76,8 +76,10 @@ method_result pooled_contrast(const prepared_data& p, const contrast& c, const a
   for (std::size_t i : c.involved()) weight += c.coefficients[i] * c.coefficients[i] / static_cast<double>(p.groups[i].n);
   r.se = std::sqrt(p.anova.ms_within * weight);
   r.null_hypothesis = "the mean contrast is zero, assuming normal errors with one common variance in all levels";
+  if (p.anova.ms_within == 0)
+    throw analysis_error("every level is constant (the pooled variance is zero), so contrast '" + c.name +
+                         "' has no standard error; check that the response column is the measurement");
   complete_t_result(r, p.anova.df_within, o);
-  if (p.anova.ms_within == 0) r.notes.push_back("every level is constant: the pooled variance is zero");
   return r;
 }
 
@@ -103,12 +105,10 @@ method_result welch_contrast(const prepared_data& p, const contrast& c, const an
   for (double x : parts) v += x;
   r.se = std::sqrt(v);
   r.null_hypothesis = "the mean contrast is zero, assuming normal errors; the level variances may differ";
-  double df = satterthwaite_df(parts, dfs);
-  if (v == 0) {
-    r.notes.push_back("the levels in this contrast are constant: standard error zero");
-    df = std::nan("");
-  }
-  complete_t_result(r, df, o);
+  if (v == 0)
+    throw analysis_error("every level in contrast '" + c.name +
+                         "' is constant (zero variance), so it has no standard error; check the data, or use --method pooled");
+  complete_t_result(r, satterthwaite_df(parts, dfs), o);
   return r;
 }
 

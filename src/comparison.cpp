@@ -46,7 +46,7 @@ comparison run_comparison(prepared_data p, const comparison_request& request) {
     double psi = 0;
     for (std::size_t i = 0; i < c.coefficients.size(); ++i)
       if (c.coefficients[i] != 0) psi += c.coefficients[i] * p.groups[i].centred_mean;
-    cr.estimate = psi + p.data.centre * c.coefficient_sum();
+    cr.estimate = psi + c.location_term(p.data.centre);
     cr.effect = effect_sizes(p, c, request.options);
     for (const auto& m : out.methods) {
       if (!method_applies(m, c)) continue;

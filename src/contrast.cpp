@@ -25,6 +25,12 @@ double contrast::coefficient_sum() const {
   return static_cast<double>(s);
 }
 
+bool contrast::sums_to_zero() const {
+  double scale = 0;
+  for (double c : coefficients) scale += std::abs(c);
+  return std::abs(coefficient_sum()) <= 1e-9 * scale;
+}
+
 std::vector<std::size_t> contrast::involved() const {
   std::vector<std::size_t> out;
   for (std::size_t i = 0; i < coefficients.size(); ++i)
@@ -341,7 +347,7 @@ void check_contrast(const contrast& c, bool allow_linear) {
   if (scale == 0) throw analysis_error("contrast '" + c.name + "' has every coefficient zero; name at least two levels");
   if (allow_linear) return;
   double sum = c.coefficient_sum();
-  if (std::abs(sum) > 1e-9 * scale) {
+  if (!c.sums_to_zero()) {
     char buf[64];
     std::snprintf(buf, sizeof buf, "%.6g", sum);
     throw analysis_error("contrast '" + c.name + "': the coefficients sum to " + buf +

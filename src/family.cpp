@@ -37,6 +37,13 @@ std::string mean_of(const std::vector<std::string>& levels, std::size_t from, st
 }  // namespace
 
 std::vector<contrast> all_pairs(const std::vector<std::string>& levels) {
+  // Beyond a few hundred levels "all pairs" is no longer a question anyone asks of a trial, and
+  // the family would not fit in memory for a million levels.
+  constexpr std::size_t max_levels = 300;
+  if (levels.size() > max_levels)
+    throw analysis_error(std::to_string(levels.size()) + " levels give " +
+                         std::to_string(levels.size() * (levels.size() - 1) / 2) +
+                         " pairs; name the contrasts with -c, or use --family versus=LEVEL (check that --group names the treatment column)");
   std::vector<contrast> out;
   for (std::size_t i = 0; i < levels.size(); ++i)
     for (std::size_t j = i + 1; j < levels.size(); ++j) out.push_back(difference(levels, i, j));

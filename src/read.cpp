@@ -552,7 +552,7 @@ dataset read_wide(record_reader& records, const read_request& request, char deli
 std::vector<dataset> read_datasets(std::istream& in, const std::string& source, const read_request& request) {
   record_reader records(in, source);
   std::string header_text;
-  if (!records.peek_header(header_text))
+  if (!records.peek_header(header_text) || header_text.find_first_not_of(" \t") == std::string::npos)
     throw input_error(source + " is empty; it needs a header line naming the columns, then one row per observation");
   if (!valid_utf8(header_text)) throw input_error(source + " line 1: the header is not valid UTF-8; save the file as UTF-8");
   char delimiter = request.delimiter ? *request.delimiter : detect_delimiter(header_text);

@@ -7,6 +7,9 @@ set(CMAKE_DEPENDS_GENERATOR "Unix Makefiles")
 # The top level Makefile was generated from the following files:
 set(CMAKE_MAKEFILE_DEPENDS
   "CMakeCache.txt"
+  "/usr/lib/cmake/doctest/doctestConfig.cmake"
+  "/usr/lib/cmake/doctest/doctestConfigVersion.cmake"
+  "/usr/lib/cmake/doctest/doctestTargets.cmake"
   "/usr/lib/x86_64-linux-gnu/cmake/Boost-1.74.0/BoostConfig.cmake"
   "/usr/lib/x86_64-linux-gnu/cmake/Boost-1.74.0/BoostConfigVersion.cmake"
   "/usr/lib/x86_64-linux-gnu/cmake/TBB/TBBConfig.cmake"
@@ -47,6 +50,7 @@ set(CMAKE_MAKEFILE_DEPENDS
   "CMakeFiles/VerifyGlobs.cmake"
   "CMakeFiles/cmake.verify_globs"
   "/work/main/cmake/contrastaConfig.cmake.in"
+  "/work/main/tests/CMakeLists.txt"
   )
 
 # The corresponding makefile is:
@@ -60,6 +64,7 @@ set(CMAKE_MAKEFILE_PRODUCTS
   "contrastaConfig.cmake"
   "contrastaConfigVersion.cmake"
   "CMakeFiles/CMakeDirectoryInformation.cmake"
+  "tests/CMakeFiles/CMakeDirectoryInformation.cmake"
   )
 
 # Dependency information for all targets:
@@ -67,4 +72,7 @@ set(CMAKE_DEPEND_INFO_FILES
   "CMakeFiles/contrasta.dir/DependInfo.cmake"
   "CMakeFiles/contrasta_cli.dir/DependInfo.cmake"
   "CMakeFiles/contrasta_exe.dir/DependInfo.cmake"
+  "tests/CMakeFiles/contrasta_test_main.dir/DependInfo.cmake"
+  "tests/CMakeFiles/classical_test.dir/DependInfo.cmake"
+  "tests/CMakeFiles/nist_anova_test.dir/DependInfo.cmake"
   )

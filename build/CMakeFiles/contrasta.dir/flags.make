@@ -6,5 +6,5 @@ CXX_DEFINES = -DBOOST_ALL_NO_LIB -DCONTRASTA_VERSION=\"0.1.0\"
 
 CXX_INCLUDES = -I/work/main/include -I/work/main/src -isystem /usr/include/eigen3
 
-CXX_FLAGS = -O3 -DNDEBUG -fPIC -Wall -Wextra -Wpedantic -Wshadow -Wconversion -Wno-sign-conversion -std=c++20
+CXX_FLAGS = -O3 -DNDEBUG -fPIC -Wall -Wextra -Wpedantic -Wshadow -Wconversion -Wno-sign-conversion -Wno-restrict -std=c++20
 

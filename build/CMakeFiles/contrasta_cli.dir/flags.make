@@ -6,5 +6,5 @@ CXX_DEFINES = -DBOOST_ALL_NO_LIB -DCONTRASTA_DATA_DIR=\"/work/main/data\" -DCONT
 
 CXX_INCLUDES = -I/work/main/src -I/work/main/include
 
-CXX_FLAGS = -O3 -DNDEBUG -Wall -Wextra -Wpedantic -Wshadow -Wconversion -Wno-sign-conversion -std=c++20
+CXX_FLAGS = -O3 -DNDEBUG -Wall -Wextra -Wpedantic -Wshadow -Wconversion -Wno-sign-conversion -Wno-restrict -std=c++20
 

@@ -6,5 +6,5 @@ CXX_DEFINES = -DCONTRASTA_DATA_DIR=\"/work/main/data\" -DCONTRASTA_INSTALLED_DAT
 
 CXX_INCLUDES = -I/work/main/src -I/work/main/include
 
-CXX_FLAGS = -O3 -DNDEBUG -Wall -Wextra -Wpedantic -Wshadow -Wconversion -Wno-sign-conversion -std=c++20
+CXX_FLAGS = -O3 -DNDEBUG -Wall -Wextra -Wpedantic -Wshadow -Wconversion -Wno-sign-conversion -Wno-restrict -std=c++20
 
