@@ -2,8 +2,6 @@
 // Options become a planning_request; plan_trial computes; the writers below only format.
 #include <algorithm>
 #include <cmath>
-#include <iostream>
-#include <map>
 #include <memory>
 #include <optional>
 #include <random>
@@ -48,9 +46,11 @@ struct plan_report {
   bool simulated = false;
 };
 
+using assignments = std::vector<std::pair<std::string, std::string>>;  // LEVEL=VALUE, in order
+
 // "a=10,b=12,c=11" in the order written. Level names may contain '=' only before the last one.
-std::vector<std::pair<std::string, std::string>> parse_assignments(const std::string& text, const std::string& option) {
-  std::vector<std::pair<std::string, std::string>> out;
+assignments parse_assignments(const std::string& text, const std::string& option) {
+  assignments out;
   std::size_t start = 0;
   while (start <= text.size()) {
     std::size_t comma = text.find(',', start);
@@ -88,7 +88,7 @@ double number_of(const std::string& text, const std::string& option) {
 }
 
 // Values of a LEVEL=VALUE option in level order; every level must be named exactly once.
-std::vector<std::string> values_in_order(const std::vector<std::pair<std::string, std::string>>& pairs,
+std::vector<std::string> values_in_order(const assignments& pairs,
                                          const std::vector<std::string>& levels, const std::string& option) {
   std::vector<std::string> out;
   for (const std::string& level : levels) {
@@ -119,10 +119,9 @@ plan_report make_report(const plan_settings& s) {
     report.source = pilot->data.source + " (response '" + pilot->data.response + "')";
   }
 
-  const auto means = s.means.empty() || s.means == "pilot" ? decltype(parse_assignments("", "")){}
-                                                           : parse_assignments(s.means, "--means");
-  const auto sds = s.sds.empty() ? decltype(means){} : parse_assignments(s.sds, "--sds");
-  const auto ns = s.ns.empty() ? decltype(means){} : parse_assignments(s.ns, "--ns");
+  const assignments means = s.means.empty() || s.means == "pilot" ? assignments{} : parse_assignments(s.means, "--means");
+  const assignments sds = s.sds.empty() ? assignments{} : parse_assignments(s.sds, "--sds");
+  const assignments ns = s.ns.empty() ? assignments{} : parse_assignments(s.ns, "--ns");
 
   if (pilot) r.levels = pilot->data.levels;
   else if (!s.level_list.empty()) r.levels = s.level_list;
@@ -477,7 +476,7 @@ void add_plan_command(CLI::App& app) {
   cmd->footer(
       "Examples:\n"
       "  contrasta plan --means \"a=10,b=12,c=11\" --sd 2 --n 8 -c \"b - a\"\n"
-      "  contrasta plan --means \"peat=47,coir=49,[bark]=40\" --sds \"peat=2.5,coir=3,bark=6\" --power 0.8 --family all-pairs\n"
+      "  contrasta plan --means \"peat=47,coir=49,bark compost=40\" --sds \"peat=2.5,coir=3,bark compost=6\" --power 0.8 --family all-pairs\n"
       "  contrasta plan --from-data pilot.csv --group substrate --response fresh_mass_g --means pilot --power 0.9 --ns \"peat=2,coir=1,bark=1\"\n"
       "  contrasta plan --means \"a=10,b=12\" --sds \"a=1,b=3\" --allocate --total 40 -c \"b - a\"\n"
       "  contrasta plan --means \"a=10,b=12,c=11\" --sd 2 --n 8 -c \"b - a\" --simulate --seed 1");
