@@ -205,7 +205,7 @@ class expression_parser {
         return level(std::string(s_.substr(start, i_ - start)), start);
       }
       linear_form f = zero();
-      f.constant = d->approximate;
+      f.constant = to_double(*d);
       return f;
     }
     if (identifier_char(c)) {
@@ -292,10 +292,10 @@ contrast parse_coefficients(std::string_view text, const std::vector<std::string
     std::size_t slash = item.find('/');
     std::optional<decimal> num = parse_decimal(item.substr(0, slash));
     std::optional<decimal> den = slash == std::string::npos ? parse_decimal("1") : parse_decimal(item.substr(slash + 1));
-    if (!num || !den || den->approximate == 0)
+    if (!num || !den || to_double(*den) == 0)
       throw analysis_error("--coefficients '" + std::string(text) + "': '" + item +
                            "' is not a number; give one number (or fraction like 1/3) per level, separated by commas");
-    c.coefficients.push_back(num->approximate / den->approximate);
+    c.coefficients.push_back(to_double(*num) / to_double(*den));
     if (comma == std::string::npos) break;
     start = comma + 1;
   }

@@ -2,6 +2,8 @@
 // place when it has no quotes (the common case) and copied only when RFC 4180 quoting needs it.
 #include "contrasta/read.hpp"
 
+#include <sys/mman.h>
+
 #include <algorithm>
 #include <cstring>
 #include <fstream>
@@ -219,23 +221,61 @@ std::string quote_for_message(std::string_view s) {
   return out + "\"";
 }
 
-// Observations of one level for one response, kept in fixed blocks so that memory grows without
-// reallocation copies and can be released block by block while the dataset is assembled.
+// Observations of one level for one response, kept in blocks that grow geometrically (256
+// values, doubling up to 65536) so that memory grows without reallocation copies, thousands of
+// small responses stay small, and blocks are released one by one while the dataset is assembled.
+// Large blocks are mapped directly from the system so that releasing one returns its memory at
+// once (heap chunks above malloc's adaptive threshold may stay resident after free).
+template <class T>
+struct mapped_block {
+  T* data = nullptr;
+  std::size_t size = 0;
+  bool mapped = false;
+  explicit mapped_block(std::size_t n) : size(n) {
+    std::size_t bytes = n * sizeof(T);
+    if (bytes >= (1u << 18)) {
+      void* p = ::mmap(nullptr, bytes, PROT_READ | PROT_WRITE, MAP_PRIVATE | MAP_ANONYMOUS, -1, 0);
+      if (p == MAP_FAILED) throw std::bad_alloc();
+      data = static_cast<T*>(p);
+      mapped = true;
+    } else {
+      data = new T[n];
+    }
+  }
+  mapped_block(const mapped_block&) = delete;
+  mapped_block& operator=(const mapped_block&) = delete;
+  ~mapped_block() { reset(); }
+  void reset() {
+    if (!data) return;
+    if (mapped) ::munmap(data, size * sizeof(T));
+    else delete[] data;
+    data = nullptr;
+  }
+  T* get() const { return data; }
+  T& operator[](std::size_t i) const { return data[i]; }
+};
+
 struct level_store {
-  static constexpr std::size_t block = 1 << 16;
-  std::vector<std::unique_ptr<double[]>> value_blocks;
-  std::vector<std::unique_ptr<std::uint64_t[]>> row_blocks;
-  std::size_t count = 0;
+  static constexpr std::size_t first_block = 256, largest_block = 1 << 16;
+  std::vector<std::unique_ptr<mapped_block<double>>> value_blocks;
+  std::vector<std::unique_ptr<mapped_block<std::uint64_t>>> row_blocks;
+  std::vector<std::size_t> block_sizes;
+  std::size_t count = 0, in_last = 0;
   std::size_t missing = 0;
   void add(double v, std::uint64_t row) {
-    if (count % block == 0) {
-      value_blocks.emplace_back(new double[block]);
-      row_blocks.emplace_back(new std::uint64_t[block]);
+    if (block_sizes.empty() || in_last == block_sizes.back()) {
+      std::size_t size = block_sizes.empty() ? first_block : std::min(block_sizes.back() * 2, largest_block);
+      value_blocks.push_back(std::make_unique<mapped_block<double>>(size));
+      row_blocks.push_back(std::make_unique<mapped_block<std::uint64_t>>(size));
+      block_sizes.push_back(size);
+      in_last = 0;
     }
-    value_blocks.back()[count % block] = v;
-    row_blocks.back()[count % block] = row;
+    (*value_blocks.back())[in_last] = v;
+    (*row_blocks.back())[in_last] = row;
+    ++in_last;
     ++count;
   }
+  std::size_t used(std::size_t block) const { return block + 1 == block_sizes.size() ? in_last : block_sizes[block]; }
 };
 
 struct transparent_hash {
@@ -256,7 +296,10 @@ struct response_state {
 class long_reader {
  public:
   long_reader(record_reader& records, const read_request& request, char delimiter)
-      : records_(records), request_(request), delimiter_(delimiter) {}
+      : records_(records), request_(request), delimiter_(delimiter) {
+    for (const auto& token : request.missing_tokens)
+      if (parse_decimal(token, request.decimal_comma)) numeric_missing_ = true;
+  }
 
   std::vector<dataset> run(const std::vector<std::string>& header) {
     header_ = header;
@@ -351,27 +394,33 @@ class long_reader {
   }
 
   std::size_t level_index(std::string_view name, bool create) {
-    if (name == last_level_name_ && last_level_ != npos) return last_level_;
-    auto it = level_map_.find(name);
+    if (last_level_ != npos && name == levels_[last_level_]) return last_level_;
+    if (levels_.size() <= 16) {
+      // A few levels: comparing the names beats hashing.
+      for (std::size_t i = 0; i < levels_.size(); ++i)
+        if (levels_[i].size() == name.size() && levels_[i] == name) return last_level_ = i;
+    }
+    auto it = levels_.size() <= 16 ? level_map_.end() : level_map_.find(name);
     std::size_t index;
     if (it != level_map_.end()) {
       index = it->second;
     } else {
       if (!create) return npos;
+      if (!valid_utf8(name)) fail_at(group_, "the level name is not valid UTF-8; save the file as UTF-8");
       index = levels_.size();
       levels_.emplace_back(name);
       level_map_.emplace(std::string(name), index);
       for (auto& r : responses_) r.stores.emplace_back();
     }
-    last_level_name_.assign(name);
     last_level_ = index;
     return index;
   }
 
   bool is_missing(std::string_view field) const {
-    std::string t = trim(field);
+    while (!field.empty() && (field.front() == ' ' || field.front() == '\t')) field.remove_prefix(1);
+    while (!field.empty() && (field.back() == ' ' || field.back() == '\t')) field.remove_suffix(1);
     for (const auto& token : request_.missing_tokens)
-      if (t == token) return true;
+      if (field == token) return true;
     return false;
   }
 
@@ -386,17 +435,17 @@ class long_reader {
       group = trimmed_group_;
     }
     if (group.empty()) fail_at(group_, "the level is empty; every row needs a level name");
-    if (!valid_utf8(group)) fail_at(group_, "the level name is not valid UTF-8; save the file as UTF-8");
     std::size_t level = level_index(group, !restricted_);
     if (level == npos) return;  // not one of --levels
     for (auto& r : responses_) {
       if (r.failed) continue;
       std::string_view field = fields[r.column];
-      if (is_missing(field)) {
+      // Parse first: a number is missing only when a missing token is itself numeric (-99).
+      auto d = parse_decimal(field, request_.decimal_comma);
+      if ((!d || numeric_missing_) && is_missing(field)) {
         ++r.stores[level].missing;
         continue;
       }
-      auto d = parse_decimal(field, request_.decimal_comma);
       if (!d) {
         if (all_numeric_) {
           r.failed = true;
@@ -411,7 +460,7 @@ class long_reader {
           fail_at(r.column, quote_for_message(field) + " is not a number; if the file uses decimal commas, add --decimal-comma");
         fail_at(r.column, quote_for_message(field) + " is not a number; correct it, or declare it missing with --missing");
       }
-      if (!std::isfinite(d->approximate))
+      if (!(d->exact && d->exponent <= 0) && !std::isfinite(to_double(*d)))
         fail_at(r.column, quote_for_message(field) + " is too large for double precision; rescale the response");
       if (!r.have_reference) {
         r.have_reference = true;
@@ -431,19 +480,21 @@ class long_reader {
       d.group_column = header_[group_];
       d.response = r.name;
       d.levels = levels_;
-      d.centre = r.have_reference ? r.reference.approximate : 0.0;
+      d.centre = r.have_reference ? to_double(r.reference) : 0.0;
       d.centre_text = r.have_reference ? r.reference_text : "0";
       std::size_t total = 0;
       for (auto& s : r.stores) total += s.count;
-      d.values.resize(total);
-      d.rows.resize(total);
+      // reserve() does not touch the pages; they fill as the blocks are released, so the peak stays
+      // near one copy of the data.
+      d.values.reserve(total);
+      d.rows.reserve(total);
       d.offsets.push_back(0);
       std::size_t at = 0;
       for (auto& s : r.stores) {
         for (std::size_t b = 0; b < s.value_blocks.size(); ++b) {
-          std::size_t len = std::min(level_store::block, s.count - b * level_store::block);
-          std::memcpy(d.values.data() + at, s.value_blocks[b].get(), len * sizeof(double));
-          std::memcpy(d.rows.data() + at, s.row_blocks[b].get(), len * sizeof(std::uint64_t));
+          std::size_t len = s.used(b);
+          d.values.insert(d.values.end(), s.value_blocks[b]->get(), s.value_blocks[b]->get() + len);
+          d.rows.insert(d.rows.end(), s.row_blocks[b]->get(), s.row_blocks[b]->get() + len);
           s.value_blocks[b].reset();
           s.row_blocks[b].reset();
           at += len;
@@ -463,11 +514,10 @@ class long_reader {
   std::vector<std::string> header_;
   std::vector<bool> numeric_hint_;
   std::size_t group_ = 0;
-  bool all_numeric_ = false, restricted_ = false;
+  bool all_numeric_ = false, restricted_ = false, numeric_missing_ = false;
   std::vector<response_state> responses_;
   std::vector<std::string> levels_;
   std::unordered_map<std::string, std::size_t, transparent_hash, std::equal_to<>> level_map_;
-  std::string last_level_name_;
   std::size_t last_level_ = npos;
   std::string trimmed_group_;
 };
@@ -503,7 +553,7 @@ dataset read_wide(record_reader& records, const read_request& request, char deli
         continue;
       }
       auto d = parse_decimal(t, request.decimal_comma);
-      if (!d || !std::isfinite(d->approximate))
+      if (!d || !std::isfinite(to_double(*d)))
         throw input_error(records.source() + " line " + std::to_string(records.line()) + ", column " +
                           std::to_string(i + 1) + " (" + header[i] + "): " + quote_for_message(t) +
                           " is not a finite number; correct it, or declare it missing with --missing");
@@ -521,7 +571,7 @@ dataset read_wide(record_reader& records, const read_request& request, char deli
   dataset d;
   d.source = records.source();
   d.response = "value";
-  d.centre = have_reference ? reference.approximate : 0.0;
+  d.centre = have_reference ? to_double(reference) : 0.0;
   d.centre_text = have_reference ? reference_text : "0";
   d.offsets.push_back(0);
   std::vector<std::size_t> order;

@@ -45,6 +45,7 @@ set(CMAKE_MAKEFILE_DEPENDS
   "/usr/share/eigen3/cmake/Eigen3ConfigVersion.cmake"
   "/usr/share/eigen3/cmake/Eigen3Targets.cmake"
   "/work/main/CMakeLists.txt"
+  "/work/main/bench/CMakeLists.txt"
   "CMakeFiles/3.25.1/CMakeCXXCompiler.cmake"
   "CMakeFiles/3.25.1/CMakeSystem.cmake"
   "CMakeFiles/VerifyGlobs.cmake"
@@ -65,6 +66,7 @@ set(CMAKE_MAKEFILE_PRODUCTS
   "contrastaConfigVersion.cmake"
   "CMakeFiles/CMakeDirectoryInformation.cmake"
   "tests/CMakeFiles/CMakeDirectoryInformation.cmake"
+  "bench/CMakeFiles/CMakeDirectoryInformation.cmake"
   )
 
 # Dependency information for all targets:
@@ -74,5 +76,9 @@ set(CMAKE_DEPEND_INFO_FILES
   "CMakeFiles/contrasta_exe.dir/DependInfo.cmake"
   "tests/CMakeFiles/contrasta_test_main.dir/DependInfo.cmake"
   "tests/CMakeFiles/classical_test.dir/DependInfo.cmake"
+  "tests/CMakeFiles/contrast_test.dir/DependInfo.cmake"
+  "tests/CMakeFiles/decimal_test.dir/DependInfo.cmake"
   "tests/CMakeFiles/nist_anova_test.dir/DependInfo.cmake"
+  "bench/CMakeFiles/bench_batch.dir/DependInfo.cmake"
+  "bench/CMakeFiles/bench_ingest.dir/DependInfo.cmake"
   )

@@ -17,8 +17,11 @@ struct decimal {
   int128 mantissa = 0;
   int exponent = 0;
   bool exact = true;          // false when the digits did not fit and `approximate` is used
-  double approximate = 0;     // the value as the nearest double (always set)
+  double approximate = 0;     // the nearest double; set only when !exact (see to_double)
 };
+
+// The value rounded once to the nearest double.
+double to_double(const decimal& d);
 
 // Parses a decimal number: optional sign, digits with an optional point (or comma when
 // decimal_comma), optional exponent (e/E). Leading and trailing blanks are allowed.
