@@ -13,6 +13,4 @@ void pending(CLI::App& app, const char* name, const char* what) {
 }
 }  // namespace
 void add_check_command(CLI::App& app) { pending(app, "check", "group summaries, assumption diagnostics, overall tests and method advice"); }
-void add_plan_command(CLI::App& app) { pending(app, "plan", "power, sample size and allocation for planned contrasts"); }
-void add_layout_command(CLI::App& app) { pending(app, "layout", "a seeded randomisation plan for a completely randomised design"); }
 }  // namespace contrasta::cli
