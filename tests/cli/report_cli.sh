@@ -28,6 +28,9 @@ for f in substrate.html extraction.html; do
   if grep -qE 'https?:|src=|url\(' "$work/$f"; then fail "$f refers to something outside itself"; fi
 done
 grep -q -- '--seed 7' "$work/substrate.html" || fail "the reproducing command lacks the seed"
+# The mean interval beside each group: scipy.stats.t.ppf(0.975, 7) * s / sqrt(8) around the coir
+# mean gives 51.575 [47.7426, 55.4074] (scipy 1.10.1), shown to four digits.
+grep -qF 'mean 51.58  [47.74, 55.41]' "$work/substrate.html" || fail "the coir mean interval differs from scipy's"
 
 # Markdown: every linked figure exists beside the file and is well-formed XML.
 links=$(grep -o '](cracker-[^)]*\.svg)' "$work/cracker.md" | sed 's/^](//; s/)$//')
