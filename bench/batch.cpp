@@ -2,7 +2,8 @@
 // behind the advice, Levene included) for all pairs, CSV output, under 2 s on 2 cores.
 //   bench_batch [responses] [file]   writes the file first when it does not exist, then runs
 //   the same steps as `contrasta compare FILE --group group --response all-numeric
-//   --method pooled,welch --format csv` in process and prints the time of each step.
+//   --method pooled,welch --no-effect-sizes --format csv` in process and prints the time of
+//   each step (third argument `with-effect-sizes` keeps the standardized effect sizes).
 #include <tbb/parallel_for.h>
 
 #include <chrono>
@@ -48,6 +49,7 @@ int main(int argc, char** argv) {
   auto t1 = clock_type::now();
   contrasta::comparison_request cr;
   cr.methods = {"pooled", "welch"};
+  cr.effect_sizes = argc > 3 && std::string(argv[3]) == "with-effect-sizes";
   cr.options.seed = 1;
   std::vector<contrasta::comparison> runs(sets.size());
   tbb::parallel_for(std::size_t{0}, sets.size(), [&](std::size_t i) {

@@ -49,7 +49,14 @@ comparison run_comparison(prepared_data p, const comparison_request& request) {
     for (std::size_t i = 0; i < c.coefficients.size(); ++i)
       if (c.coefficients[i] != 0) psi += c.coefficients[i] * p.groups[i].centred_mean;
     cr.estimate = psi + c.location_term(p.data.centre);
-    cr.effect = effect_sizes(p, c, request.options);
+    if (request.effect_sizes) {
+      cr.effect = effect_sizes(p, c, request.options);
+    } else {
+      for (auto* e : {&cr.effect.standardized, &cr.effect.bonett})
+        e->estimate = e->ci_low = e->ci_high = e->standardizer = e->se = not_available;
+      cr.effect.scaled_contrast = cr.effect.scale = not_available;
+      cr.effect.notes.push_back("effect sizes not computed (--no-effect-sizes)");
+    }
     for (const auto& m : out.methods) {
       if (!method_applies(m, c)) {
         // Asked for by name: say why there is no number rather than dropping the row.

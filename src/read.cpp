@@ -262,18 +262,28 @@ struct level_store {
   std::vector<std::size_t> block_sizes;
   std::size_t count = 0, in_last = 0;
   std::size_t missing = 0;
+  // Where the next value goes: kept here so that adding a value touches this struct and the
+  // block only (thousands of responses write one value each per row).
+  double* next_value = nullptr;
+  std::uint64_t* next_row = nullptr;
+  std::size_t room = 0;
   void add(double v, std::uint64_t row) {
-    if (block_sizes.empty() || in_last == block_sizes.back()) {
-      std::size_t size = block_sizes.empty() ? first_block : std::min(block_sizes.back() * 2, largest_block);
-      value_blocks.push_back(std::make_unique<mapped_block<double>>(size));
-      row_blocks.push_back(std::make_unique<mapped_block<std::uint64_t>>(size));
-      block_sizes.push_back(size);
-      in_last = 0;
-    }
-    (*value_blocks.back())[in_last] = v;
-    (*row_blocks.back())[in_last] = row;
+    if (room == 0) grow();
+    *next_value++ = v;
+    *next_row++ = row;
+    --room;
     ++in_last;
     ++count;
+  }
+  void grow() {
+    std::size_t size = block_sizes.empty() ? first_block : std::min(block_sizes.back() * 2, largest_block);
+    value_blocks.push_back(std::make_unique<mapped_block<double>>(size));
+    row_blocks.push_back(std::make_unique<mapped_block<std::uint64_t>>(size));
+    block_sizes.push_back(size);
+    in_last = 0;
+    next_value = value_blocks.back()->get();
+    next_row = row_blocks.back()->get();
+    room = size;
   }
   std::size_t used(std::size_t block) const { return block + 1 == block_sizes.size() ? in_last : block_sizes[block]; }
 };
@@ -614,10 +624,10 @@ std::vector<dataset> read_datasets(std::istream& in, const std::string& source, 
     header_reader.next(header_fields, delimiter);
     std::vector<std::string> header;
     for (auto f : header_fields) header.push_back(trim(f));
-    for (std::size_t i = 0; i < header.size(); ++i)
-      for (std::size_t j = 0; j < i; ++j)
-        if (!header[i].empty() && header[i] == header[j])
-          throw input_error(source + " line 1: two columns are named '" + header[i] + "'; give every column its own name");
+    std::unordered_map<std::string_view, std::size_t> seen;  // thousands of responses: no pairwise scan
+    for (const auto& name : header)
+      if (!name.empty() && seen[name]++ > 0)
+        throw input_error(source + " line 1: two columns are named '" + name + "'; give every column its own name");
     if (request.wide) return {read_wide(records, request, delimiter, header)};
     if (header.size() < 2)
       throw input_error(source + " line 1: found one column ('" + (header.empty() ? "" : header[0]) +

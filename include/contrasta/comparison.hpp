@@ -17,6 +17,10 @@ struct comparison_request {
   std::vector<std::string> methods = {"auto"};  // names, or "all" / "auto"
   std::string adjust = "none";
   analysis_options options;
+  // Standardized effect sizes with noncentral-t intervals cost far more than the contrasts
+  // themselves (a root search over the noncentral t per interval end); batch runs over
+  // thousands of responses may switch them off.
+  bool effect_sizes = true;
 };
 
 struct comparison {
