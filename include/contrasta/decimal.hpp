@@ -8,14 +8,20 @@
 
 namespace contrasta {
 
+__extension__ using int128 = __int128;
+__extension__ using uint128 = unsigned __int128;
+
 // value = mantissa * 10^exponent, exactly. Up to 36 significant digits are kept exactly; longer
 // mantissas fall back to a correctly rounded double in `approximate`.
 struct decimal {
-  __int128 mantissa = 0;
+  int128 mantissa = 0;
   int exponent = 0;
   bool exact = true;          // false when the digits did not fit and `approximate` is used
-  double approximate = 0;     // the value as the nearest double (always set)
+  double approximate = 0;     // the nearest double; set only when !exact (see to_double)
 };
+
+// The value rounded once to the nearest double.
+double to_double(const decimal& d);
 
 // Parses a decimal number: optional sign, digits with an optional point (or comma when
 // decimal_comma), optional exponent (e/E). Leading and trailing blanks are allowed.

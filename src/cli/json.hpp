@@ -26,8 +26,6 @@ class json_writer {
   json_writer& value(std::uint64_t v);
   json_writer& value(int v) { return value(static_cast<std::int64_t>(v)); }
   json_writer& value(unsigned v) { return value(static_cast<std::uint64_t>(v)); }
-  json_writer& value(unsigned long v) { return value(static_cast<std::uint64_t>(v)); }
-  json_writer& value(long v) { return value(static_cast<std::int64_t>(v)); }
   json_writer& value(bool v);
   json_writer& value(std::string_view v);
   json_writer& value(const char* v) { return value(std::string_view(v)); }

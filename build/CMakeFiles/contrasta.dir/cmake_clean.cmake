@@ -1,0 +1,43 @@
+file(REMOVE_RECURSE
+  "CMakeFiles/contrasta.dir/src/anova.cpp.o"
+  "CMakeFiles/contrasta.dir/src/anova.cpp.o.d"
+  "CMakeFiles/contrasta.dir/src/classical.cpp.o"
+  "CMakeFiles/contrasta.dir/src/classical.cpp.o.d"
+  "CMakeFiles/contrasta.dir/src/comparison.cpp.o"
+  "CMakeFiles/contrasta.dir/src/comparison.cpp.o.d"
+  "CMakeFiles/contrasta.dir/src/contrast.cpp.o"
+  "CMakeFiles/contrasta.dir/src/contrast.cpp.o.d"
+  "CMakeFiles/contrasta.dir/src/dataset.cpp.o"
+  "CMakeFiles/contrasta.dir/src/dataset.cpp.o.d"
+  "CMakeFiles/contrasta.dir/src/decimal.cpp.o"
+  "CMakeFiles/contrasta.dir/src/decimal.cpp.o.d"
+  "CMakeFiles/contrasta.dir/src/distributions.cpp.o"
+  "CMakeFiles/contrasta.dir/src/distributions.cpp.o.d"
+  "CMakeFiles/contrasta.dir/src/family.cpp.o"
+  "CMakeFiles/contrasta.dir/src/family.cpp.o.d"
+  "CMakeFiles/contrasta.dir/src/methods.cpp.o"
+  "CMakeFiles/contrasta.dir/src/methods.cpp.o.d"
+  "CMakeFiles/contrasta.dir/src/multiplicity.cpp.o"
+  "CMakeFiles/contrasta.dir/src/multiplicity.cpp.o.d"
+  "CMakeFiles/contrasta.dir/src/options.cpp.o"
+  "CMakeFiles/contrasta.dir/src/options.cpp.o.d"
+  "CMakeFiles/contrasta.dir/src/overall.cpp.o"
+  "CMakeFiles/contrasta.dir/src/overall.cpp.o.d"
+  "CMakeFiles/contrasta.dir/src/pending_methods.cpp.o"
+  "CMakeFiles/contrasta.dir/src/pending_methods.cpp.o.d"
+  "CMakeFiles/contrasta.dir/src/prepared.cpp.o"
+  "CMakeFiles/contrasta.dir/src/prepared.cpp.o.d"
+  "CMakeFiles/contrasta.dir/src/read.cpp.o"
+  "CMakeFiles/contrasta.dir/src/read.cpp.o.d"
+  "CMakeFiles/contrasta.dir/src/recommend.cpp.o"
+  "CMakeFiles/contrasta.dir/src/recommend.cpp.o.d"
+  "CMakeFiles/contrasta.dir/src/summary.cpp.o"
+  "CMakeFiles/contrasta.dir/src/summary.cpp.o.d"
+  "libcontrasta.a"
+  "libcontrasta.pdb"
+)
+
+# Per-language clean rules from dependency scanning.
+foreach(lang CXX)
+  include(CMakeFiles/contrasta.dir/cmake_clean_${lang}.cmake OPTIONAL)
+endforeach()

@@ -1,0 +1,2 @@
+# Empty dependencies file for contrasta_exe.
+# This may be replaced when dependencies are built.

@@ -1,0 +1,171 @@
+// `contrasta compare`: the main job. Options become a comparison_request; results go to a writer.
+#include <tbb/parallel_for.h>
+#include <tbb/task_arena.h>
+
+#include <iostream>
+#include <map>
+
+#include "cli/commands.hpp"
+#include "cli/common.hpp"
+#include "cli/run.hpp"
+#include "cli/write_compare.hpp"
+#include "contrasta/comparison.hpp"
+#include "contrasta/error.hpp"
+#include "contrasta/multiplicity.hpp"
+#include "contrasta/prepared.hpp"
+
+namespace contrasta::cli {
+namespace {
+
+struct compare_settings {
+  data_options data;
+  contrast_options contrasts;
+  output_options output;
+  common_run_options run;
+  std::vector<std::string> methods = {"auto"};
+  std::string adjust = "none";
+  std::string adjust_across = "bh";
+  double trim = 0.2;
+  std::uint64_t resamples = 99'999;
+  std::string exact = "auto";
+  std::uint64_t max_arrangements = 20'000'000;
+  std::string interval = "bca";
+  std::string statistic = "studentized";
+};
+
+// Per contrast and method, adjusts the p-values across responses (batch mode).
+void adjust_across_responses(std::vector<comparison>& runs, const std::string& method) {
+  std::map<std::pair<std::string, std::string>, std::vector<method_result*>> families;
+  for (auto& c : runs)
+    for (auto& cr : c.contrasts)
+      for (auto& r : cr.results) families[{cr.spec.name, r.method}].push_back(&r);
+  for (auto& [key, members] : families) {
+    std::vector<double> raw;
+    std::vector<method_result*> with_p;
+    for (auto* r : members) {
+      if (std::isnan(r->p_value)) {
+        r->p_adjusted_across = r->p_value;
+        continue;
+      }
+      raw.push_back(r->p_value);
+      with_p.push_back(r);
+    }
+    auto adjusted = adjust_p_values(raw, method);
+    for (std::size_t i = 0; i < with_p.size(); ++i) with_p[i]->p_adjusted_across = adjusted[i];
+  }
+}
+
+void run_compare(const compare_settings& s) {
+  if (s.trim < 0 || s.trim >= 0.5) throw usage_error("--trim must be at least 0 and below 0.5");
+  auto datasets = load_datasets(s.data);
+  comparison_request request;
+  request.methods = s.methods;
+  request.adjust = s.adjust;
+  request.options = make_analysis_options(s.run);
+  request.options.trim = s.trim;
+  request.options.resamples = s.resamples;
+  request.options.exact = s.exact == "always" ? exact_mode::always : s.exact == "never" ? exact_mode::never : exact_mode::automatic;
+  request.options.max_arrangements = s.max_arrangements;
+  request.options.interval = s.interval == "percentile" ? bootstrap_interval::percentile
+                             : s.interval == "studentized" ? bootstrap_interval::studentized
+                                                           : bootstrap_interval::bca;
+  request.options.statistic = s.statistic == "raw" ? permutation_statistic::raw : permutation_statistic::studentized;
+  request.options.allow_linear = s.contrasts.allow_linear;
+  const bool batch = datasets.size() > 1;
+  if (!batch) request.options.progress = progress_printer(s.output.quiet, "resampling");
+
+  // Contrasts are parsed against the levels of the first response; in batch mode every
+  // response shares the factor column and so the levels.
+  std::vector<std::size_t> n;
+  for (std::size_t i = 0; i < datasets.front().level_count(); ++i) n.push_back(datasets.front().n(i));
+  request.contrasts = build_contrasts(s.contrasts, datasets.front().levels, n);
+
+  std::vector<comparison> runs(datasets.size());
+  std::vector<std::string> failures(datasets.size());
+  auto analyse = [&](std::size_t i) {
+    try {
+      runs[i] = run_comparison(prepare(std::move(datasets[i]), s.trim), request);
+    } catch (const analysis_error& e) {
+      if (!batch) throw;
+      failures[i] = e.what();
+    }
+  };
+  if (batch) {
+    // Responses in parallel; each response's own computation uses the same seed, so a batch run
+    // equals the single-response runs exactly.
+    tbb::task_arena arena(s.run.threads > 0 ? static_cast<int>(s.run.threads) : tbb::task_arena::automatic);
+    arena.execute([&] { tbb::parallel_for(std::size_t{0}, runs.size(), analyse); });
+  } else {
+    analyse(0);
+  }
+  std::vector<comparison> done;
+  for (std::size_t i = 0; i < runs.size(); ++i) {
+    if (!failures[i].empty()) {
+      if (!s.output.quiet) std::cerr << "note: response skipped: " << failures[i] << '\n';
+      continue;
+    }
+    done.push_back(std::move(runs[i]));
+  }
+  if (done.empty()) throw analysis_error("no response could be analysed; see the notes above");
+  if (batch) adjust_across_responses(done, s.adjust_across);
+
+  write_output(s.output, [&](std::ostream& out) {
+    if (s.output.format == "json") {
+      if (batch) write_batch_json(out, done);
+      else write_comparison_json(out, done.front());
+    } else if (s.output.format == "csv") {
+      write_comparison_csv(out, done, batch);
+    } else if (s.output.format == "markdown") {
+      for (const auto& c : done) write_comparison_markdown(out, c);
+    } else {
+      for (std::size_t i = 0; i < done.size(); ++i) {
+        if (i) out << "\n";
+        write_comparison_table(out, done[i]);
+      }
+    }
+  });
+}
+
+}  // namespace
+
+void add_compare_command(CLI::App& app) {
+  auto settings = std::make_shared<compare_settings>();
+  auto* cmd = app.add_subcommand(
+      "compare",
+      "estimate and test contrasts among the levels, with intervals, under the chosen methods and multiplicity control");
+  cmd->footer(
+      "Examples:\n"
+      "  contrasta compare trial.csv --group substrate --response fresh_mass_g\n"
+      "  contrasta compare trial.csv --group substrate --response fresh_mass_g \\\n"
+      "      -c \"peat-free: (coir + [wood fibre])/2 - peat\" --method welch,permutation --adjust holm\n"
+      "  contrasta compare panel.csv --group recipe --response crisp,salty --family versus=classic --format json");
+  add_data_options(cmd, settings->data);
+  add_contrast_options(cmd, settings->contrasts);
+  cmd->add_option("--method", settings->methods,
+                  "comma list of pooled, welch, trimmed, permutation, bootstrap, rank, mann-whitney, brunner-munzel, dunn; "
+                  "all; auto (the advised method, default)")
+      ->delimiter(',');
+  cmd->add_option("--adjust", settings->adjust,
+                  "multiplicity adjustment over the contrasts: none, bonferroni, holm, sidak, hochberg, bh, by, scheffe, "
+                  "tukey, games-howell, dunnett, maxt (default none)");
+  cmd->add_option("--adjust-across", settings->adjust_across,
+                  "with several responses: adjustment across responses per contrast and method: bh, by, holm, none (default bh)")
+      ->check(CLI::IsMember({"bh", "by", "holm", "none", "bonferroni", "hochberg", "sidak"}));
+  cmd->add_option("--trim", settings->trim, "proportion trimmed from each end for trimmed means (default 0.2)");
+  cmd->add_option("--resamples", settings->resamples, "Monte Carlo permutations or bootstrap resamples (default 99999)")
+      ->check(CLI::Range(std::uint64_t{99}, std::uint64_t{1'000'000'000}));
+  cmd->add_option("--exact", settings->exact, "enumerate every arrangement: auto (when few enough), always, never")
+      ->check(CLI::IsMember({"auto", "always", "never"}));
+  cmd->add_option("--max-arrangements", settings->max_arrangements,
+                  "with --exact auto: enumerate when there are at most this many arrangements (default 20000000)");
+  cmd->add_option("--interval", settings->interval, "bootstrap interval: percentile, bca (default), studentized")
+      ->check(CLI::IsMember({"percentile", "bca", "studentized"}));
+  cmd->add_option("--statistic", settings->statistic,
+                  "permutation statistic: studentized (Welch t, default) or raw (the contrast itself)")
+      ->check(CLI::IsMember({"studentized", "raw"}));
+  add_run_options(cmd, settings->run);
+  add_output_options(cmd, settings->output, {"table", "json", "csv", "markdown"});
+  set_action(cmd, [settings] { run_compare(*settings); });
+}
+
+}  // namespace contrasta::cli

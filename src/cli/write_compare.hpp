@@ -1,0 +1,34 @@
+// Writers of `compare` results: terminal table, JSON, CSV and Markdown. They only format what
+// the engine computed.
+#pragma once
+#include <ostream>
+#include <string>
+#include <vector>
+
+#include "cli/json.hpp"
+#include "contrasta/comparison.hpp"
+
+namespace contrasta::cli {
+
+// The fixed JSON keys of one single-response object (interface.md), written into an open writer.
+void write_comparison_object(json_writer& json, const comparison& c, bool with_tool_and_seed);
+void write_comparison_json(std::ostream& out, const comparison& c);
+void write_batch_json(std::ostream& out, const std::vector<comparison>& runs);
+
+void write_comparison_csv(std::ostream& out, const std::vector<comparison>& runs, bool batch);
+void write_comparison_table(std::ostream& out, const comparison& c);
+void write_comparison_markdown(std::ostream& out, const comparison& c);
+
+// Shared pieces for other writers (check, report).
+void write_groups_json(json_writer& json, const prepared_data& p);
+void write_anova_json(json_writer& json, const anova_table& a);
+void write_overall_json(json_writer& json, const std::vector<overall_test>& overall);
+void write_recommendation_json(json_writer& json, const recommendation& r);
+void write_result_json(json_writer& json, const method_result& r);
+// "substrate.csv: response fresh_mass_g by substrate, 4 levels, 38 observations (2 missing)"
+std::string data_line(const prepared_data& p);
+void write_groups_table(std::ostream& out, const prepared_data& p);
+void write_overall_table(std::ostream& out, const std::vector<overall_test>& overall);
+void write_recommendation_table(std::ostream& out, const recommendation& r);
+
+}  // namespace contrasta::cli

@@ -1,0 +1,72 @@
+#include "contrasta/comparison.hpp"
+
+#include <algorithm>
+
+#include "contrasta/error.hpp"
+#include "contrasta/family.hpp"
+#include "contrasta/methods.hpp"
+
+namespace contrasta {
+
+comparison run_comparison(prepared_data p, const comparison_request& request) {
+  std::size_t populated = 0;
+  for (const auto& g : p.groups) populated += g.n > 0;
+  if (populated < 2)
+    throw analysis_error("the data hold " + std::to_string(populated) +
+                         " level(s) with observations; a comparison needs at least two (check --group and --levels)");
+  comparison out;
+  out.options = request.options;
+  out.overall = overall_tests(p);
+  out.advice = recommend(p, request.options);
+
+  std::vector<contrast> contrasts = request.contrasts.empty() ? all_pairs(p.data.levels) : request.contrasts;
+  for (const auto& c : contrasts) check_contrast(c, request.options.allow_linear);
+
+  bool everything = false;
+  for (const auto& m : request.methods) {
+    if (m == "auto") {
+      if (std::find(out.methods.begin(), out.methods.end(), out.advice.method) == out.methods.end())
+        out.methods.push_back(out.advice.method);
+    } else if (m == "all") {
+      everything = true;
+      for (const auto& name : method_names())
+        if (name != "dunn" && std::find(out.methods.begin(), out.methods.end(), name) == out.methods.end())
+          out.methods.push_back(name);
+    } else if (std::find(out.methods.begin(), out.methods.end(), m) == out.methods.end()) {
+      if (std::find(method_names().begin(), method_names().end(), m) == method_names().end())
+        throw usage_error("--method '" + m + "' is not known; use a comma list of pooled, welch, trimmed, permutation, "
+                          "bootstrap, rank, mann-whitney, brunner-munzel, dunn, or all / auto");
+      out.methods.push_back(m);
+    }
+  }
+
+  for (const auto& c : contrasts) {
+    contrast_result cr;
+    cr.spec = c;
+    double psi = 0;
+    for (std::size_t i = 0; i < c.coefficients.size(); ++i)
+      if (c.coefficients[i] != 0) psi += c.coefficients[i] * p.groups[i].centred_mean;
+    cr.estimate = psi + c.location_term(p.data.centre);
+    for (const auto& m : out.methods) {
+      if (!method_applies(m, c)) continue;
+      if (everything) {
+        try {
+          cr.results.push_back(run_method(m, p, c, request.options));
+        } catch (const analysis_error& e) {
+          method_result r;
+          r.method = m;
+          r.notes.push_back(std::string("not computed: ") + e.what());
+          cr.results.push_back(r);
+        }
+      } else {
+        cr.results.push_back(run_method(m, p, c, request.options));
+      }
+    }
+    out.contrasts.push_back(std::move(cr));
+  }
+  out.adjust = adjust_family(out.contrasts, request.adjust, p, request.options);
+  out.prepared = std::move(p);
+  return out;
+}
+
+}  // namespace contrasta
