@@ -48,7 +48,7 @@ double over_x(const F& f) {
 }
 
 double inside_known(const std::vector<factor>& fs, double h, bool two_sided) {
-  if (!(h > 0)) return two_sided ? 0.0 : (fs.empty() ? 1.0 : std::numeric_limits<double>::quiet_NaN());
+  if (two_sided && !(h > 0)) return 0.0;
   return std::min(1.0, over_x([&](double x) {
     double log_inside = 0;
     for (const auto& f : fs) log_inside += std::log1p(-outside(f, h, x, two_sided));
@@ -74,7 +74,7 @@ double t_quantile_of(double prob, double df) {
 bool valid(std::span<const double> lambda, double df) {
   if (lambda.empty() || !(df > 0)) return false;
   for (double l : lambda)
-    if (!(l > 0 && l < 1)) return false;
+    if (!(std::abs(l) < 1) || l == 0) return false;
   return true;
 }
 
@@ -91,13 +91,19 @@ double joint(double c, std::span<const double> lambda, double df, bool two_sided
   if (std::isinf(c)) return (c > 0) == upper_tail ? 0.0 : 1.0;
   const auto fs = factors(lambda);
   if (two_sided && !(c > 0)) return upper_tail ? 1.0 : 0.0;
-  auto lower = [&](double h) { return inside_known(fs, h, two_sided); };
-  auto upper = [&](double h) { return outside_known(fs, h, two_sided); };
-  // One-sided critical values at or below zero: the scale mixture of a known-scale
-  // probability at h = c s with c <= 0 is not monotone in s in the same way; not needed for
-  // a test at a level below 1/2, and reported as not available.
-  if (!two_sided && !(c > 0)) return std::numeric_limits<double>::quiet_NaN();
-  if (df >= detail::known_scale_df) return upper_tail ? upper(c) : lower(c);
+  if (!two_sided && c < -dunnett_beyond_double) return upper_tail ? 1.0 : 0.0;
+  // A one-sided bound at or below zero: the events are Z_i <= c s with c s <= 0, so the
+  // known-scale probabilities are evaluated at h = -|c| s (c = 0: free of s).
+  const double sign = (!two_sided && c < 0) ? -1.0 : 1.0;
+  auto lower = [&](double h) { return inside_known(fs, sign * h, two_sided); };
+  auto upper = [&](double h) { return outside_known(fs, sign * h, two_sided); };
+  if (c == 0) return upper_tail ? upper(0) : lower(0);
+  if (df >= detail::known_scale_df) return upper_tail ? upper(std::abs(c)) : lower(std::abs(c));
+  if (sign < 0) {
+    // Here P(max Z_i > c s) rises with s: the complement side is the well-behaved one.
+    double inside = detail::scale_mixture(std::abs(c), df, lower, upper, false, dunnett_scales(), dunnett_beyond_double);
+    return upper_tail ? 1 - inside : inside;
+  }
   return detail::scale_mixture(c, df, lower, upper, upper_tail, dunnett_scales(), dunnett_beyond_double);
 }
 

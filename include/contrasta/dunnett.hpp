@@ -12,6 +12,8 @@ namespace contrasta {
 std::vector<double> dunnett_lambdas(std::span<const double> treatment_n, double control_n);
 
 // P(max_i |T_i| <= c) (two_sided) or P(max_i T_i <= c) (one-sided), df > 0 or infinity.
+// A negative lambda_i stands for a comparison written control - treatment: the correlations
+// are then lambda_i lambda_j with signs, which matters for one-sided probabilities only.
 double dunnett_cdf(double c, std::span<const double> lambda, double df, bool two_sided);
 
 // The complement P(max_i |T_i| > c) (or P(max_i T_i > c)), computed directly so that small

@@ -78,7 +78,21 @@ def tukey_cases(rng, live):
         groups = random_groups(rng, k, True)
         res = stats.tukey_hsd(*groups)
         ci = res.confidence_interval(0.95)
-        out.append({"groups": groups, "pvalue": res.pvalue.tolist(), "low": ci.low.tolist(), "high": ci.high.tolist()})
+        # Scheffe (1953) for the contrast first - mean of the others, pooled: p = P(F > t^2/(k-1))
+        # with scipy.stats.f, critical |t| = sqrt((k-1) F_{0.95; k-1, N-k}).
+        n = np.array([len(g) for g in groups], float)
+        means = np.array([np.mean(g) for g in groups])
+        dfw = n.sum() - k
+        mse = sum(((np.array(g) - np.mean(g)) ** 2).sum() for g in groups) / dfw
+        c = np.full(k, -1.0 / (k - 1))
+        c[0] = 1
+        psi = float(c @ means)
+        se = math.sqrt(mse * np.sum(c ** 2 / n))
+        t = psi / se
+        scheffe = {"coefficients": c.tolist(), "p": float(stats.f.sf(t * t / (k - 1), k - 1, dfw)),
+                   "critical": math.sqrt((k - 1) * stats.f.isf(0.05, k - 1, dfw)), "estimate": psi, "se": se}
+        out.append({"groups": groups, "pvalue": res.pvalue.tolist(), "low": ci.low.tolist(), "high": ci.high.tolist(),
+                    "scheffe": scheffe})
     return out
 
 
