@@ -187,7 +187,8 @@ many_to_one many_to_one_family(const std::vector<contrast_result>& family, const
     throw analysis_error("--adjust dunnett needs a many-to-one family (each level against one reference level): " + why +
                          "; use --family versus=LEVEL");
   };
-  pair_levels(family, "dunnett");
+  for (const auto& c : family)
+    if (!c.spec.is_pair()) fail("contrast '" + c.spec.name + "' is not a difference of two levels");
   many_to_one out;
   auto [a0, b0] = family.front().spec.two_levels();
   if (family.size() == 1) {

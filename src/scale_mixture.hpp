@@ -41,7 +41,8 @@ double peak_of(const F& log_integrand, double lo, double hi) {
   const double ratio = (std::sqrt(5.0) - 1) / 2;
   double x1 = b - ratio * (b - a), x2 = a + ratio * (b - a);
   double f1 = log_integrand(std::exp(x1)), f2 = log_integrand(std::exp(x2));
-  for (int i = 0; i < 60 && b - a > 1e-7; ++i) {
+  // The cuts placed around the peak need it to about 1e-6 relative only.
+  for (int i = 0; i < 60 && b - a > 1e-6; ++i) {
     if (f1 < f2) {
       a = x1;
       x1 = x2;
@@ -75,10 +76,13 @@ double scale_mixture(double q, double df, const Lower& lower, const Upper& upper
   const double s_hi = scale_quantile(1e-20, df, true);
   for (double pr : {1e-12, 1e-8, 1e-5, 1e-3, 0.02, 0.1, 0.3, 0.5}) cuts.push_back(scale_quantile(pr, df, false));
   for (double pr : {0.3, 0.1, 0.02, 1e-3, 1e-5, 1e-8, 1e-12, 1e-16}) cuts.push_back(scale_quantile(pr, df, true));
-  for (double h : scales) cuts.push_back(h / q);
   double top = s_hi;
   if (upper_tail && std::isfinite(upper_negligible_h)) top = std::min(top, upper_negligible_h / q);
   cuts.push_back(top);
+  // Below `bottom` the lower side holds no mass that matters (P(s < bottom) = 1e-12). The upper
+  // side keeps every cut: its first panel must end where upper(q s) is still large (h = 0.25),
+  // or P(s < b) - integral of f lower would cancel.
+  double bottom = upper_tail ? 0.0 : cuts.front();
   if (upper_tail) {
     // Far in the upper tail the integrand is a narrow peak where the falling upper(q s) meets
     // the rising density; cuts at geometrically closer distances around it resolve it for any
@@ -86,13 +90,18 @@ double scale_mixture(double q, double df, const Lower& lower, const Upper& upper
     const double peak = peak_of([&](double s) {
       double u = upper(q * s);
       return u > 0 ? std::log(scale_density(s, df)) + std::log(u) : -std::numeric_limits<double>::infinity();
-    }, scale_quantile(1e-12, df, false), top);
-    for (int j = 1; j <= 14; ++j) {
+    }, scale_quantile(1e-300, df, false), top);
+    // Resolve down to about a quarter of that width.
+    const int finest = std::clamp(static_cast<int>(std::ceil(std::log2(4 * std::sqrt(2 * (df + q * q))))), 3, 24);
+    for (int j = 1; j <= finest; ++j) {
       double d = std::ldexp(1.0, -j);
       cuts.push_back(peak * (1 - d));
       cuts.push_back(peak * (1 + d));
     }
   }
+  // Where upper/lower change character.
+  for (double h : scales)
+    if (h / q >= bottom) cuts.push_back(h / q);
   std::sort(cuts.begin(), cuts.end());
   cuts.erase(std::remove_if(cuts.begin(), cuts.end(), [&](double c) { return !(c > 0) || c > top; }), cuts.end());
   cuts.erase(std::unique(cuts.begin(), cuts.end()), cuts.end());

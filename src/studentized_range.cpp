@@ -70,7 +70,8 @@ double range_upper(double q, double k) {
     double log_rest = ratio < 0.5 ? std::log1p(-ratio) : std::log(normal_interval(z, q)) - log_a;
     return k * normal_density(z) * std::exp((k - 1) * log_a) * -std::expm1((k - 1) * log_rest);
   };
-  return std::min(1.0, panel_integral(integrand, -9.0, std::max(9.0, q / 2 + 9)));
+  // Below q/2 - 9 and above q/2 + 9 the integrand is under exp(-81) of its peak near q/2.
+  return std::min(1.0, panel_integral(integrand, std::max(-9.0, q / 2 - 9), std::max(9.0, q / 2 + 9)));
 }
 
 bool valid(double k, double df) { return k >= 2 && df > 0 && std::isfinite(k); }

@@ -53,22 +53,26 @@ void check_never_below_raw(const std::vector<contrast_result>& family) {
 TEST_CASE("step-wise adjustments agree with statsmodels multipletests to 1e-12") {
   // statsmodels 0.13 multipletests: bonferroni, holm, sidak, simes-hochberg, fdr_bh, fdr_by.
   auto fx = fixture::load("multiplicity_fixtures");
+  double worst = 0;
   for (const auto& c : fx["multipletests"].arr()) {
     auto p = c["p"].numbers();
     for (const auto& [name, want] : c["adjusted"].obj()) {
       auto got = adjust_p_values(p, name);
       auto w = want.numbers();
       REQUIRE(got.size() == w.size());
+      for (std::size_t i = 0; i < w.size(); ++i) worst = std::max(worst, fixture::relative_error(got[i], w[i]));
       for (std::size_t i = 0; i < w.size(); ++i)
         CHECK_MESSAGE(fixture::relative_error(got[i], w[i]) < 1e-12, name << " i=" << i << " got " << got[i] << " want " << w[i]);
     }
     CHECK(adjust_p_values(p, "none") == p);
   }
+  MESSAGE("largest relative difference from statsmodels: " << worst);
 }
 
 TEST_CASE("Tukey-Kramer agrees with scipy.stats.tukey_hsd (p-values and simultaneous intervals)") {
   auto fx = fixture::load("multiplicity_fixtures");
   analysis_options o;
+  double worst_p = 0, worst_ci = 0;
   for (const auto& c : fx["tukey_hsd"].arr()) {
     auto p = prepared_from(c["groups"]);
     auto contrasts = all_pairs(p.data.levels);
@@ -82,6 +86,9 @@ TEST_CASE("Tukey-Kramer agrees with scipy.stats.tukey_hsd (p-values and simultan
       const auto& pooled = cr.results[0];
       // scipy's p is 1 - cdf with its cdf good to ~1e-11 absolute.
       double want_p = c["pvalue"][i][j].num();
+      worst_p = std::max(worst_p, std::abs(pooled.p_adjusted - want_p));
+      worst_ci = std::max({worst_ci, fixture::relative_error(*pooled.simultaneous_low, c["low"][i][j].num(), 1e-3),
+                           fixture::relative_error(*pooled.simultaneous_high, c["high"][i][j].num(), 1e-3)});
       CHECK(std::abs(pooled.p_adjusted - want_p) < 1e-9);
       // scipy's interval uses studentized_range.ppf (root finding to about 1e-10 relative).
       CHECK(fixture::relative_error(*pooled.simultaneous_low, c["low"][i][j].num(), 1e-3) < 1e-8);
@@ -92,11 +99,13 @@ TEST_CASE("Tukey-Kramer agrees with scipy.stats.tukey_hsd (p-values and simultan
     }
     check_never_below_raw(family);
   }
+  MESSAGE("Tukey-Kramer vs scipy: largest p difference " << worst_p << ", largest relative interval difference " << worst_ci);
 }
 
 TEST_CASE("Games-Howell agrees with its formula evaluated with scipy.stats.studentized_range") {
   auto fx = fixture::load("multiplicity_fixtures");
   analysis_options o;
+  double worst_p = 0, worst_ci = 0;
   for (const auto& c : fx["games_howell"].arr()) {
     auto p = prepared_from(c["groups"]);
     auto family = run(p, all_pairs(p.data.levels), {"welch"}, o);
@@ -104,6 +113,9 @@ TEST_CASE("Games-Howell agrees with its formula evaluated with scipy.stats.stude
     std::size_t at = 0;
     for (const auto& pair : c["pairs"].arr()) {
       const auto& r = family[at++].results[0];
+      worst_p = std::max(worst_p, std::abs(r.p_adjusted - pair["p"].num()));
+      worst_ci = std::max({worst_ci, fixture::relative_error(*r.simultaneous_low, pair["low"].num(), 1e-3),
+                           fixture::relative_error(*r.simultaneous_high, pair["high"].num(), 1e-3)});
       CHECK(fixture::relative_error(*r.df, pair["df"].num()) < 1e-10);
       CHECK(std::abs(r.p_adjusted - pair["p"].num()) < 1e-9);
       CHECK(fixture::relative_error(*r.simultaneous_low, pair["low"].num(), 1e-3) < 1e-8);
@@ -111,6 +123,7 @@ TEST_CASE("Games-Howell agrees with its formula evaluated with scipy.stats.stude
     }
     check_never_below_raw(family);
   }
+  MESSAGE("Games-Howell vs formula with scipy: largest p difference " << worst_p << ", largest relative interval difference " << worst_ci);
 }
 
 TEST_CASE("Scheffe agrees with its formula evaluated with scipy.stats.f") {
