@@ -25,5 +25,8 @@ endmacro()
 ####################################################################################
 include(CMakeFindDependencyMacro)
 find_dependency(TBB)
+# Header-only dependencies named in the static library's link interface.
+find_dependency(Eigen3 NO_MODULE)
+find_dependency(Boost)
 include("${CMAKE_CURRENT_LIST_DIR}/contrastaTargets.cmake")
 check_required_components(contrasta)

@@ -79,5 +79,6 @@ set(CMAKE_DEPEND_INFO_FILES
   "tests/CMakeFiles/contrast_test.dir/DependInfo.cmake"
   "tests/CMakeFiles/decimal_test.dir/DependInfo.cmake"
   "tests/CMakeFiles/nist_anova_test.dir/DependInfo.cmake"
+  "bench/CMakeFiles/bench_batch.dir/DependInfo.cmake"
   "bench/CMakeFiles/bench_ingest.dir/DependInfo.cmake"
   )

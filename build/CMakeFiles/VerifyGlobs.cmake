@@ -5,6 +5,7 @@ cmake_policy(SET CMP0009 NEW)
 # CONTRASTA_BENCH_SOURCES at bench/CMakeLists.txt:2 (file)
 file(GLOB NEW_GLOB LIST_DIRECTORIES true "/work/main/bench/*.cpp")
 set(OLD_GLOB
+  "/work/main/bench/batch.cpp"
   "/work/main/bench/ingest.cpp"
   )
 if(NOT "${NEW_GLOB}" STREQUAL "${OLD_GLOB}")
@@ -73,7 +74,9 @@ endif()
 file(GLOB NEW_GLOB LIST_DIRECTORIES true "/work/main/tests/cli/*.sh")
 set(OLD_GLOB
   "/work/main/tests/cli/bad_inputs.sh"
+  "/work/main/tests/cli/batch.sh"
   "/work/main/tests/cli/formats.sh"
+  "/work/main/tests/cli/install.sh"
   )
 if(NOT "${NEW_GLOB}" STREQUAL "${OLD_GLOB}")
   message("-- GLOB mismatch!")

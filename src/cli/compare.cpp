@@ -31,6 +31,11 @@ struct compare_settings {
   std::uint64_t max_arrangements = 20'000'000;
   std::string interval = "bca";
   std::string statistic = "studentized";
+  bool full = false;  // batch mode: every response's full table instead of the compact summary
+};
+
+struct skipped_response {
+  std::string response, reason;
 };
 
 // Per contrast and method, adjusts the p-values across responses (batch mode).
@@ -81,7 +86,8 @@ void run_compare(const compare_settings& s) {
   request.contrasts = build_contrasts(s.contrasts, datasets.front().levels, n);
 
   std::vector<comparison> runs(datasets.size());
-  std::vector<std::string> failures(datasets.size());
+  std::vector<std::string> failures(datasets.size()), names(datasets.size());
+  for (std::size_t i = 0; i < datasets.size(); ++i) names[i] = datasets[i].response;
   auto analyse = [&](std::size_t i) {
     try {
       runs[i] = run_comparison(prepare(std::move(datasets[i]), s.trim), request);
@@ -99,24 +105,35 @@ void run_compare(const compare_settings& s) {
     analyse(0);
   }
   std::vector<comparison> done;
+  std::vector<skipped_response> skipped;
   for (std::size_t i = 0; i < runs.size(); ++i) {
     if (!failures[i].empty()) {
-      if (!s.output.quiet) std::cerr << "note: response skipped: " << failures[i] << '\n';
+      skipped.push_back({names[i], failures[i]});
+      if (!s.output.quiet) std::cerr << "note: response '" << names[i] << "' skipped: " << failures[i] << '\n';
       continue;
     }
     done.push_back(std::move(runs[i]));
   }
-  if (done.empty()) throw analysis_error("no response could be analysed; see the notes above");
+  if (done.empty()) throw analysis_error("no response could be analysed: " + skipped.front().reason);
   if (batch) adjust_across_responses(done, s.adjust_across);
 
   write_output(s.output, [&](std::ostream& out) {
     if (s.output.format == "json") {
-      if (batch) write_batch_json(out, done);
-      else write_comparison_json(out, done.front());
+      if (batch) {
+        std::vector<std::pair<std::string, std::string>> notes;
+        for (const auto& k : skipped) notes.emplace_back(k.response, k.reason);
+        write_batch_json(out, done, notes);
+      } else {
+        write_comparison_json(out, done.front());
+      }
     } else if (s.output.format == "csv") {
       write_comparison_csv(out, done, batch);
     } else if (s.output.format == "markdown") {
       for (const auto& c : done) write_comparison_markdown(out, c);
+    } else if (batch && !s.full) {
+      std::vector<std::pair<std::string, std::string>> notes;
+      for (const auto& k : skipped) notes.emplace_back(k.response, k.reason);
+      write_batch_summary(out, done, s.adjust_across, notes);
     } else {
       for (std::size_t i = 0; i < done.size(); ++i) {
         if (i) out << "\n";
@@ -163,6 +180,8 @@ void add_compare_command(CLI::App& app) {
   cmd->add_option("--statistic", settings->statistic,
                   "permutation statistic: studentized (Welch t, default) or raw (the contrast itself)")
       ->check(CLI::IsMember({"studentized", "raw"}));
+  cmd->add_flag("--full", settings->full,
+                "with several responses: print every response's full table instead of the one-line-per-finding summary");
   add_run_options(cmd, settings->run);
   add_output_options(cmd, settings->output, {"table", "json", "csv", "markdown"});
   set_action(cmd, [settings] { run_compare(*settings); });

@@ -168,7 +168,8 @@ void write_comparison_json(std::ostream& out, const comparison& c) {
   write_comparison_object(json, c, true);
 }
 
-void write_batch_json(std::ostream& out, const std::vector<comparison>& runs) {
+void write_batch_json(std::ostream& out, const std::vector<comparison>& runs,
+                      const std::vector<std::pair<std::string, std::string>>& skipped) {
   json_writer json(out);
   json.begin_object();
   json.key("tool").begin_object().field("name", "contrasta").field("version", version()).end_object();
@@ -176,7 +177,57 @@ void write_batch_json(std::ostream& out, const std::vector<comparison>& runs) {
   json.key("responses").begin_array();
   for (const auto& c : runs) write_comparison_object(json, c, false);
   json.end_array();
+  json.key("skipped").begin_array();
+  for (const auto& [response, reason] : skipped)
+    json.begin_object().field("response", response).field("reason", reason).end_object();
+  json.end_array();
   json.end_object();
+}
+
+void write_batch_summary(std::ostream& out, const std::vector<comparison>& runs, const std::string& adjust_across,
+                         const std::vector<std::pair<std::string, std::string>>& skipped) {
+  const auto& first = runs.front();
+  out << "contrasta " << version() << " | compare, " << runs.size() << " responses\n";
+  out << "  data  " << first.prepared.data.source << " by '" << first.prepared.data.group_column << "', "
+      << first.prepared.data.level_count() << " levels; seed " << first.options.seed << "\n";
+  out << "  within each response: adjustment " << first.adjust.method << "; across responses: " << adjust_across
+      << " per contrast and method\n";
+  struct line {
+    const comparison* run;
+    const contrast_result* contrast;
+    const method_result* result;
+  };
+  std::vector<line> lines;
+  for (const auto& c : runs)
+    for (const auto& cr : c.contrasts)
+      for (const auto& r : cr.results)
+        if (r.method == c.advice.method) lines.push_back({&c, &cr, &r});
+  auto across = [](const line& l) { return l.result->p_adjusted_across.value_or(l.result->p_adjusted); };
+  std::stable_sort(lines.begin(), lines.end(), [&](const line& a, const line& b) {
+    double pa = across(a), pb = across(b);
+    if (std::isnan(pa)) return false;
+    if (std::isnan(pb)) return true;
+    return pa < pb;
+  });
+  std::size_t findings = 0;
+  for (const auto& l : lines) findings += across(l) <= first.options.alpha;
+  out << "  findings at alpha " << general(first.options.alpha, 3) << " (p adjusted across responses): " << findings
+      << " of " << lines.size() << " response-contrast pairs, advised method of each response\n\n";
+  text_table t;
+  t.header = {"response", "contrast", "method", "estimate", percent(first.options.conf) + " interval", "p-value",
+              "within", "across", ""};
+  t.right = {false, false, false, true, false, true, true, true, false};
+  for (const auto& l : lines) {
+    const auto& r = *l.result;
+    int d = decimals_for(std::isfinite(r.se) && r.se > 0 ? r.se : 1.0);
+    t.rows.push_back({l.run->prepared.data.response, l.contrast->spec.name, r.method, fixed(r.estimate, d),
+                      "[" + fixed(r.ci_low, d) + ", " + fixed(r.ci_high, d) + "]", p_text(r.p_value),
+                      p_text(r.p_adjusted), p_text(across(l)), across(l) <= first.options.alpha ? "finding" : ""});
+  }
+  t.print(out);
+  for (const auto& [response, reason] : skipped) out << "\n  skipped '" << response << "': " << reason << "\n";
+  out << "\n  Each response's full table: add --full. A p-value is not an effect size; read the estimates and\n"
+         "  intervals, check the design and assumptions, and defer decisions under regulation to local rules.\n";
 }
 
 namespace {

@@ -13,7 +13,13 @@ namespace contrasta::cli {
 // The fixed JSON keys of one single-response object (interface.md), written into an open writer.
 void write_comparison_object(json_writer& json, const comparison& c, bool with_tool_and_seed);
 void write_comparison_json(std::ostream& out, const comparison& c);
-void write_batch_json(std::ostream& out, const std::vector<comparison>& runs);
+// Batch mode: {"tool", "seed", "responses": [...]} plus "skipped" responses with their reason.
+void write_batch_json(std::ostream& out, const std::vector<comparison>& runs,
+                      const std::vector<std::pair<std::string, std::string>>& skipped = {});
+// Batch mode terminal summary: one line per response and contrast for the advised method,
+// sorted by the p-value adjusted across responses, with the count of findings at alpha.
+void write_batch_summary(std::ostream& out, const std::vector<comparison>& runs, const std::string& adjust_across,
+                         const std::vector<std::pair<std::string, std::string>>& skipped);
 
 void write_comparison_csv(std::ostream& out, const std::vector<comparison>& runs, bool batch);
 void write_comparison_table(std::ostream& out, const comparison& c);
