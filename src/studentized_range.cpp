@@ -106,8 +106,13 @@ double solve_range(double target, double k, double df, bool upper) {
   if (target == 0) return upper ? std::numeric_limits<double>::infinity() : 0.0;
   if (target == 1) return upper ? 0.0 : std::numeric_limits<double>::infinity();
   const double log_target = std::log(target);
+  // Above 1e-3 the upper side is as accurate as 1 - cdf (1e-12 relative) and the cdf needs
+  // about half the work.
+  const bool via_cdf = upper && target >= 1e-3;
   auto f = [&](double q) {
-    double p = upper ? studentized_range_sf(q, k, df) : studentized_range_cdf(q, k, df);
+    double p = via_cdf ? 1 - studentized_range_cdf(q, k, df)
+               : upper ? studentized_range_sf(q, k, df)
+                       : studentized_range_cdf(q, k, df);
     if (!(p > 0)) return upper ? -1e300 : -1e300;
     return std::log(p) - log_target;
   };
