@@ -193,6 +193,51 @@ def trend_cases(rng, live):
     return out
 
 
+def welch_t(groups, c):
+    psi = sum(ci * np.mean(g) for ci, g in zip(c, groups) if ci != 0)
+    v = sum(ci * ci * np.var(g, ddof=1) / len(g) for ci, g in zip(c, groups) if ci != 0)
+    return psi / math.sqrt(v) if v > 0 else (0.0 if psi == 0 else math.copysign(math.inf, psi))
+
+
+def maxt_exact(rng, live):
+    # Westfall & Young (1993) max-T over all pairs, two-sided, from every distinct reassignment
+    # of the pooled observations to groups of the observed sizes (itertools enumeration), with
+    # the Welch t of each pair; single-step and step-down adjusted p-values.
+    import itertools
+    sizes = [3, 3, 4] if not live else [3, 3, 3]
+    groups = [[float(round(x, 2)) for x in rng.normal(0, 1 + i, n) + (0.8 if i == 2 else 0)] for i, n in enumerate(sizes)]
+    k = len(groups)
+    pairs = [(i, j) for i in range(k) for j in range(i + 1, k)]
+    coefs = []
+    for i, j in pairs:
+        c = [0.0] * k
+        c[i], c[j] = 1.0, -1.0
+        coefs.append(c)
+    pooled = np.concatenate([np.array(g) for g in groups])
+    n_total = len(pooled)
+    observed = np.array([abs(welch_t(groups, c)) for c in coefs])
+    rows = []
+    idx = set(range(n_total))
+    for first in itertools.combinations(sorted(idx), sizes[0]):
+        rest = sorted(idx - set(first))
+        for second in itertools.combinations(rest, sizes[1]):
+            third = sorted(set(rest) - set(second))
+            g = [pooled[list(first)], pooled[list(second)], pooled[third]]
+            rows.append([abs(welch_t(g, c)) for c in coefs])
+    rows = np.array(rows)
+    tol = lambda t: t - 1e-12 * abs(t)
+    single = [float(np.mean(rows.max(axis=1) >= tol(t))) for t in observed]
+    order = np.argsort(-observed, kind="stable")
+    down = np.zeros(len(coefs))
+    running = 0.0
+    for pos, j in enumerate(order):
+        m = rows[:, order[pos:]].max(axis=1)
+        running = max(running, float(np.mean(m >= tol(observed[j]))))
+        down[j] = running
+    return {"groups": groups, "coefficients": coefs, "arrangements": len(rows), "single_step": single,
+            "step_down": down.tolist()}
+
+
 def mpmath_tail():
     import mpmath as mp
     mp.mp.dps = 30
@@ -235,6 +280,7 @@ def main():
         "dunnett_monte_carlo": dunnett_monte_carlo(rng, args.live),
         "dunnett_normal": dunnett_normal(rng, args.live),
         "trends": trend_cases(rng, args.live),
+        "maxt_exact": maxt_exact(rng, args.live),
     }
     out = args.out or os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "data", "multiplicity_fixtures.json")
     with open(out, "w") as f:
