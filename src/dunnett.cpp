@@ -44,7 +44,7 @@ double outside(const factor& f, double h, double x, bool two_sided) {
 // the tolerance relative to the whole integral, not to each near-empty piece of it.
 template <class F>
 double over_x(const F& f) {
-  return boost::math::quadrature::gauss_kronrod<double, 31>::integrate(f, -9.0, 9.0, 12, 1e-12);
+  return boost::math::quadrature::gauss_kronrod<double, 21>::integrate(f, -9.0, 9.0, 12, 1e-11);
 }
 
 double inside_known(const std::vector<factor>& fs, double h, bool two_sided) {

@@ -31,7 +31,10 @@ TEST_CASE("one treatment is Student's t") {
       CHECK(fixture::relative_error(dunnett_sf(c, lambda, df, false), upper) < 1e-9);
       CHECK(fixture::relative_error(dunnett_sf(c, lambda, df, true), 2 * upper) < 1e-9);
       CHECK(std::abs(dunnett_cdf(c, lambda, df, true) + dunnett_sf(c, lambda, df, true) - 1) < 1e-12);
+      // A one-sided bound below zero (an estimate on the wrong side of a one-sided test).
+      CHECK(fixture::relative_error(dunnett_sf(-c, lambda, df, false), 1 - upper) < 1e-9);
     }
+    CHECK(std::abs(dunnett_sf(0, lambda, df, false) - 0.5) < 1e-12);
   }
 }
 
