@@ -91,7 +91,10 @@ TEST_CASE("upper tail keeps 1e-7 relative accuracy against a 30-digit evaluation
   const row tail[] = {{9, 2, inf, 1.9661604415428874763e-10},
                       {6, 4, inf, 0.00012981724532670781884},
                       {10, 3, 10, 0.000091763364550944319997},
-                      {8, 5, 20, 0.00013641404844451843447}};
+                      {8, 5, 20, 0.00013641404844451843447},
+                      {15, 10, 5, 0.0017175437745705385942},
+                      {100, 4, 1, 0.01642461113538987519},
+                      {6, 3, 30, 0.00055749003861020451109}};
   for (const auto& r : tail) {
     MESSAGE("q=" << r.q << " k=" << r.k << " df=" << r.df << ": relative error " << fixture::relative_error(studentized_range_sf(r.q, r.k, r.df), r.sf));
     CHECK_MESSAGE(fixture::relative_error(studentized_range_sf(r.q, r.k, r.df), r.sf) < 1e-7, "q=" << r.q << " k=" << r.k);
