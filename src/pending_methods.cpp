@@ -11,8 +11,6 @@ namespace {
   throw analysis_error(std::string("method '") + name + "' is not available in this build yet; choose pooled or welch");
 }
 }  // namespace
-method_result permutation_contrast(const prepared_data&, const contrast&, const analysis_options&) { pending("permutation"); }
-method_result bootstrap_contrast(const prepared_data&, const contrast&, const analysis_options&) { pending("bootstrap"); }
 method_result trimmed_contrast(const prepared_data&, const contrast&, const analysis_options&) { pending("trimmed"); }
 method_result rank_contrast(const prepared_data&, const contrast&, const analysis_options&) { pending("rank"); }
 method_result mann_whitney_contrast(const prepared_data&, const contrast&, const analysis_options&) { pending("mann-whitney"); }

@@ -1,0 +1,31 @@
+// Pieces of bootstrap intervals that are worth checking on their own.
+#pragma once
+#include <cstdint>
+#include <vector>
+
+#include "contrasta/contrast.hpp"
+#include "contrasta/prepared.hpp"
+
+namespace contrasta::detail {
+
+// The sample quantile with linear interpolation between order statistics at position
+// (B - 1) q (Hyndman & Fan 1996, definition 7; numpy's default). Reorders x.
+double quantile_linear(std::vector<double>& x, double q);
+
+// The BCa acceleration of a contrast of means from the jackknife over all observations
+// (Efron & Tibshirani 1993 eq. 14.15 in the multi-sample form of scipy.stats.bootstrap): leaving
+// out y_i of group j moves psi by c_j (ybar_j - y_i)/(n_j - 1), so
+// U_ji = (n_j - 1)(psi_dot - psi_(i)) = c_j (y_i - ybar_j) and
+// a = sum_j sum_i U_ji^3 / n_j^3 / (6 (sum_j sum_i U_ji^2 / n_j^2)^(3/2)).
+double bca_acceleration(const prepared_data& p, const contrast& c);
+
+// The BCa bias correction z0 = Phi^-1(share of psi* below psi), ties counted half (the 'mean'
+// convention of scipy.stats.bootstrap; Efron & Tibshirani 1993 eq. 14.14), from the deviations
+// psi* - psi. +-infinity when every deviation lies on one side.
+double bca_bias(const std::vector<double>& deviations);
+
+// The BCa probability for a tail probability z_alpha = Phi^-1(alpha) (Efron 1987, eq. 2.3):
+// Phi(z0 + (z0 + z_alpha) / (1 - a (z0 + z_alpha))).
+double bca_level(double bias, double acceleration, double z_alpha);
+
+}  // namespace contrasta::detail
