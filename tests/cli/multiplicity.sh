@@ -39,6 +39,8 @@ ok 'Games & Howell' --method welch --adjust games-howell --format markdown
 ok "'peat'" --family versus=peat --method pooled --adjust dunnett --format json
 ok 'simultaneous_low' --family versus=peat --method pooled --adjust dunnett --alternative greater --format csv
 ok 'adjusted by Holm instead' --method pooled,welch --adjust dunnett --family versus=peat
+ok 'max-T step-down' --method welch,permutation,bootstrap --adjust maxt --resamples 999
+ok '"method": "maxt"' --family versus=peat --method welch,pooled --adjust maxt --resamples 999 --format json
 refused 'pairwise differences' --family helmert --method pooled --adjust tukey
 refused 'many-to-one' --family all-pairs --method pooled --adjust dunnett
 refused 'two-sided' --method pooled --adjust scheffe --alternative less
