@@ -61,6 +61,9 @@ double range_lower(double q, double k) {
 double range_upper(double q, double k) {
   if (!(q > 0)) return 1;
   if (q > range_beyond_double) return 0;
+  // While the upper side is above 1e-3, 1 - P(R <= q) keeps 13 digits and costs a quarter of
+  // the direct integral.
+  if (double lower = range_lower(q, k); lower < 0.999) return 1 - lower;
   auto integrand = [&](double z) {
     double a = normal_lower(z);
     if (!(a > 0)) return 0.0;
