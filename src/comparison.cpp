@@ -25,8 +25,10 @@ comparison run_comparison(prepared_data p, const comparison_request& request) {
   bool everything = false;
   for (const auto& m : request.methods) {
     if (m == "auto") {
-      if (std::find(out.methods.begin(), out.methods.end(), out.advice.method) == out.methods.end())
-        out.methods.push_back(out.advice.method);
+      // The advised method for tests, and for intervals when the advice names another one.
+      for (const auto& advised : {out.advice.method, out.advice.interval_method})
+        if (!advised.empty() && std::find(out.methods.begin(), out.methods.end(), advised) == out.methods.end())
+          out.methods.push_back(advised);
     } else if (m == "all") {
       everything = true;
       for (const auto& name : method_names())
@@ -47,8 +49,19 @@ comparison run_comparison(prepared_data p, const comparison_request& request) {
     for (std::size_t i = 0; i < c.coefficients.size(); ++i)
       if (c.coefficients[i] != 0) psi += c.coefficients[i] * p.groups[i].centred_mean;
     cr.estimate = psi + c.location_term(p.data.centre);
+    cr.effect = effect_sizes(p, c, request.options);
     for (const auto& m : out.methods) {
-      if (!method_applies(m, c)) continue;
+      if (!method_applies(m, c)) {
+        // Asked for by name: say why there is no number rather than dropping the row.
+        if (!everything && m != out.advice.method) {
+          method_result r;
+          r.method = m;
+          r.notes.push_back("does not apply: " + m + " compares two levels, and this contrast involves " +
+                            std::to_string(c.involved().size()) + "; use rank or trimmed for it");
+          cr.results.push_back(r);
+        }
+        continue;
+      }
       if (everything) {
         try {
           cr.results.push_back(run_method(m, p, c, request.options));

@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "contrasta/contrast.hpp"
+#include "contrasta/effect_size.hpp"
 #include "contrasta/options.hpp"
 #include "contrasta/prepared.hpp"
 #include "contrasta/result.hpp"
@@ -17,6 +18,7 @@ struct contrast_result {
   contrast spec;
   double estimate = 0;                 // the plain mean contrast psi = sum c_i ybar_i
   std::vector<method_result> results;  // one per method, in request order
+  effect_size_result effect;           // standardized and Bonett effect sizes (effect_size.hpp)
 };
 
 struct adjustment_summary {

@@ -6,6 +6,7 @@
 #include <map>
 
 #include "cli/commands.hpp"
+#include "cli/agreement.hpp"
 #include "cli/common.hpp"
 #include "cli/run.hpp"
 #include "cli/write_compare.hpp"
@@ -138,6 +139,11 @@ void run_compare(const compare_settings& s) {
       for (std::size_t i = 0; i < done.size(); ++i) {
         if (i) out << "\n";
         write_comparison_table(out, done[i]);
+        if (done[i].methods.size() > 1) {
+          // More than one method: show at a glance whether any conclusion depends on the method.
+          out << "\n";
+          write_agreement_text(out, done[i], done[i].options.alpha);
+        }
       }
     }
   });

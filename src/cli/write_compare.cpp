@@ -5,6 +5,7 @@
 
 #include "cli/common.hpp"
 #include "cli/format.hpp"
+#include "cli/write_effect_size.hpp"
 #include "contrasta/version.hpp"
 
 namespace contrasta::cli {
@@ -94,6 +95,8 @@ void write_recommendation_json(json_writer& json, const recommendation& r) {
   json.field("method", r.method).field("interval_method", r.interval_method);
   json.key("reasons").strings(r.reasons);
   json.key("alternatives").strings(r.alternatives);
+  json.key("rules").strings(r.rules);
+  json.key("notes").strings(r.notes);
   json.end_object();
 }
 
@@ -149,6 +152,7 @@ void write_comparison_object(json_writer& json, const comparison& c, bool with_t
     for (std::size_t i = 0; i < cr.spec.coefficients.size(); ++i) json.field(p.data.levels[i], cr.spec.coefficients[i]);
     json.end_object();
     json.field("estimate", cr.estimate);
+    write_effect_size_json(json, cr.effect);
     json.key("results").begin_array();
     for (const auto& r : cr.results) write_result_json(json, r);
     json.end_array();
@@ -244,7 +248,9 @@ void write_comparison_csv(std::ostream& out, const std::vector<comparison>& runs
   if (batch) out << "response,";
   out << "contrast,method,estimate,se,statistic_name,statistic,df,p_value,p_adjusted";
   if (batch) out << ",p_adjusted_across";
-  out << ",ci_low,ci_high,simultaneous_low,simultaneous_high,null,resamples,exact,p_interval_low,p_interval_high\n";
+  out << ",ci_low,ci_high,simultaneous_low,simultaneous_high,null,resamples,exact,p_interval_low,p_interval_high";
+  for (const auto& column : effect_size_csv_columns()) out << ',' << column;
+  out << '\n';
   for (const auto& c : runs) {
     for (const auto& cr : c.contrasts) {
       for (const auto& r : cr.results) {
@@ -258,7 +264,9 @@ void write_comparison_csv(std::ostream& out, const std::vector<comparison>& runs
             << (r.simultaneous_high ? csv_number(*r.simultaneous_high) : "") << ',' << csv_cell(r.null_hypothesis)
             << ',' << (r.resamples ? std::to_string(*r.resamples) : "") << ',' << (r.exact ? "true" : "false") << ','
             << (r.p_interval ? csv_number((*r.p_interval)[0]) : "") << ','
-            << (r.p_interval ? csv_number((*r.p_interval)[1]) : "") << '\n';
+            << (r.p_interval ? csv_number((*r.p_interval)[1]) : "");
+        for (const auto& cell : effect_size_csv_cells(cr.effect)) out << ',' << cell;
+        out << '\n';
       }
     }
   }
@@ -297,6 +305,7 @@ void write_recommendation_table(std::ostream& out, const recommendation& r) {
     for (std::size_t i = 0; i < r.alternatives.size(); ++i) out << (i ? ", " : " ") << r.alternatives[i];
     out << '\n';
   }
+  for (const auto& note : r.notes) out << "  note: " << note << '\n';
 }
 
 void write_comparison_table(std::ostream& out, const comparison& c) {
@@ -321,6 +330,7 @@ void write_comparison_table(std::ostream& out, const comparison& c) {
     ++index;
     out << "\n  [" << index << "] " << cr.spec.name << '\n';
     out << "      coefficients: " << coefficient_text(cr.spec, p.data.levels) << '\n';
+    out << "      effect size: " << effect_size_line(cr.effect) << '\n';
     double scale = HUGE_VAL;
     for (const auto& r : cr.results)
       if (r.se > 0 && std::isfinite(r.se)) scale = std::min(scale, r.se);
@@ -352,7 +362,7 @@ void write_comparison_table(std::ostream& out, const comparison& c) {
     }
     t.print(out, "      ");
     for (const auto& r : cr.results) {
-      out << "      " << r.method << " tests: " << r.null_hypothesis;
+      out << "      " << r.method << (r.null_hypothesis.empty() ? ":" : " tests: ") << r.null_hypothesis;
       if (!r.estimand.empty() && r.estimand != "mean contrast") out << " (estimate: " << r.estimand << ")";
       if (r.resamples) out << "; " << *r.resamples << (r.exact ? " arrangements, all enumerated" : " resamples");
       if (r.p_interval && !r.exact)
@@ -411,6 +421,9 @@ void write_comparison_markdown(std::ostream& out, const comparison& c) {
     }
   }
   t.print_markdown(out);
+  out << "\n### Effect sizes\n\n";
+  for (const auto& cr : c.contrasts)
+    out << "- " << markdown_escape(cr.spec.name) << ": " << markdown_escape(effect_size_line(cr.effect)) << "\n";
   out << "\n### What each method tests\n\n";
   std::vector<std::string> seen;
   for (const auto& cr : c.contrasts)

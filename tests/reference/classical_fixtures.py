@@ -56,6 +56,10 @@ def make_dataset(rng, index):
         else:
             decimals_i = decimals
         groups.append([f"{v:.{decimals_i}f}" for v in x])
+    # A constant level has no variance and no Welch or pooled test (the engine refuses it with
+    # an error, tested in the CLI corpus); draw again rather than write an undefined reference.
+    if any(len(set(g)) < 2 for g in groups):
+        return make_dataset(rng, index)
     levels = [f"L{i}" for i in range(k)]
     if index % 9 == 4:
         levels[0] = "high dose"
