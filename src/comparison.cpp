@@ -85,6 +85,7 @@ comparison run_comparison(prepared_data p, const comparison_request& request) {
     out.contrasts.push_back(std::move(cr));
   }
   out.adjust = adjust_family(out.contrasts, request.adjust, p, request.options);
+  out.orthogonality = orthogonality(p, contrasts);
   out.prepared = std::move(p);
   return out;
 }

@@ -6,6 +6,7 @@
 #include "contrasta/contrast.hpp"
 #include "contrasta/multiplicity.hpp"
 #include "contrasta/options.hpp"
+#include "contrasta/orthogonality.hpp"
 #include "contrasta/overall.hpp"
 #include "contrasta/prepared.hpp"
 #include "contrasta/recommend.hpp"
@@ -30,6 +31,7 @@ struct comparison {
   std::vector<std::string> methods;    // the methods that ran, "auto" resolved
   std::vector<contrast_result> contrasts;
   adjustment_summary adjust;
+  orthogonality_report orthogonality;  // of the family, for this design
   analysis_options options;
 };
 

@@ -159,6 +159,25 @@ void write_comparison_object(json_writer& json, const comparison& c, bool with_t
     json.end_object();
   }
   json.end_array();
+  {
+    const auto& o = c.orthogonality;
+    json.key("orthogonality").begin_object();
+    json.field("mutually_orthogonal", o.mutually_orthogonal).field("complete", o.complete);
+    json.field("ss_between", o.ss_between).field("ss_contrasts", o.ss_contrasts).field("ss_remainder", o.ss_remainder);
+    json.key("sums_of_squares").begin_array();
+    for (const auto& x : o.sums_of_squares)
+      json.begin_object().field("contrast", x.name).field("ss", x.sum_of_squares).field("share", x.share).end_object();
+    json.end_array();
+    json.key("non_orthogonal_pairs").begin_array();
+    for (std::size_t i = 0; i < o.non_orthogonal_pairs.size(); ++i)
+      json.begin_object()
+          .field("first", c.contrasts[o.non_orthogonal_pairs[i].first].spec.name)
+          .field("second", c.contrasts[o.non_orthogonal_pairs[i].second].spec.name)
+          .field("correlation", o.non_orthogonal_correlations[i])
+          .end_object();
+    json.end_array();
+    json.end_object();
+  }
   json.key("adjust").begin_object();
   json.field("method", c.adjust.method).field("family_size", static_cast<std::uint64_t>(c.adjust.family_size));
   json.field("protects", c.adjust.protects);
@@ -316,6 +335,35 @@ void write_comparison_table(std::ostream& out, const comparison& c) {
       << alternative_words(c.options.side) << ", conclusions at alpha " << general(c.options.alpha, 3) << "\n\n";
   out << "LEVELS\n";
   write_groups_table(out, p);
+  {
+    // The ANOVA table with the one-df contrast sums of squares beside it when the family is
+    // mutually orthogonal for this design (then they partition SS between).
+    const auto& a = p.anova;
+    const auto& o = c.orthogonality;
+    out << "\nANALYSIS OF VARIANCE\n";
+    text_table t;
+    t.header = {"source", "df", "sum of squares", "mean square", "F", "p-value", "share"};
+    t.right = {false, true, true, true, true, true, true};
+    auto pct = [](double share) { return std::isfinite(share) ? fixed(100 * share, 1) + "%" : std::string("-"); };
+    t.rows.push_back({"between levels", general(a.df_between, 4), general(a.ss_between, 6), general(a.ms_between, 6),
+                      general(a.f, 4), p_text(a.p_value), "100%"});
+    if (o.mutually_orthogonal && !o.sums_of_squares.empty()) {
+      for (const auto& x : o.sums_of_squares)
+        t.rows.push_back({"  " + x.name, "1", general(x.sum_of_squares, 6), "", "", "", pct(x.share)});
+      if (!o.complete && std::isfinite(o.ss_remainder))
+        t.rows.push_back({"  rest of between", general(a.df_between - static_cast<double>(o.sums_of_squares.size()), 4),
+                          general(o.ss_remainder, 6), "", "", "", pct(o.ss_remainder / a.ss_between)});
+    }
+    t.rows.push_back({"within levels", general(a.df_within, 4), general(a.ss_within, 6), general(a.ms_within, 6), "", "", ""});
+    t.rows.push_back({"total", general(a.df_between + a.df_within, 4), general(a.ss_total, 6), "", "", "", ""});
+    t.print(out);
+    out << "  R^2 " << general(a.r_squared, 4) << ", residual SD " << general(a.residual_sd, 4) << "; the contrasts are "
+        << (o.mutually_orthogonal ? "mutually orthogonal for this design" : "not mutually orthogonal for this design")
+        << (o.mutually_orthogonal ? (o.complete ? " and complete: their sums of squares add up to SS between"
+                                                : ": their sums of squares are shown inside SS between")
+                                  : " (their sums of squares overlap, so none are shown)")
+        << "\n";
+  }
   if (!c.overall.empty()) {
     out << "\nOVERALL TESTS (does anything differ?)\n";
     write_overall_table(out, c.overall);
