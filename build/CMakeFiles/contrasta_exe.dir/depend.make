@@ -1,2 +1,0 @@
-# Empty dependencies file for contrasta_exe.
-# This may be replaced when dependencies are built.
