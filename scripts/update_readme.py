@@ -8,7 +8,7 @@ import sys
 from pathlib import Path
 
 root = Path(__file__).resolve().parent.parent
-binary = root / "build" / "contrasta"
+binary = Path(sys.argv[1]) if len(sys.argv) > 1 else root / "build" / "contrasta"
 examples = {
     "compare-substrate": "compare data/substrate_trial.csv --group substrate --response fresh_mass_g "
                          "--contrast-file data/substrate_trial.contrasts --adjust holm --seed 2026",
@@ -25,7 +25,25 @@ examples = {
     "layout-substrate": "layout --treatments \"peat,coir,bark compost,wood fibre\" --replicates 3 --seed 5",
 }
 
+def demoted(markdown, source):
+    """A doc spliced into the README: headings one level down (outside code blocks) and
+    relative links re-rooted at docs/."""
+    out, fenced = [], False
+    for line in markdown.splitlines():
+        if line.startswith("```"):
+            fenced = not fenced
+        if not fenced and line.startswith("#"):
+            line = "#" + line
+        out.append(line)
+    text = "\n".join(out) + "\n"
+    return re.sub(r"\]\((?!https?:|#|docs/)([^)]+)\)", lambda m: f"](docs/{m.group(1)})", text)
+
+
 text = (root / "README.md").read_text()
+for doc in sorted((root / "docs").glob("*.md")):
+    name = doc.stem
+    pattern = re.compile(rf"(<!-- begin: doc:{name} -->\n)(.*?)(<!-- end: doc:{name} -->)", re.S)
+    text = pattern.sub(lambda m: m.group(1) + demoted(doc.read_text(), doc) + m.group(3), text)
 for name, args in examples.items():
     pattern = re.compile(rf"(<!-- begin: {name} -->\n)(.*?)(<!-- end: {name} -->)", re.S)
     if not pattern.search(text):
