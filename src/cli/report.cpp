@@ -204,9 +204,6 @@ void run_report(const report_settings& s) {
   if (s.trim < 0 || s.trim >= 0.5) throw usage_error("--trim must be at least 0 and below 0.5");
   const std::string format = format_of(s);
   auto datasets = load_datasets(s.data);
-  if (datasets.size() != 1) {
-    throw usage_error("a report covers one response; name one with --response (run once per response)");
-  }
   comparison_request request;
   request.methods = s.methods;
   request.adjust = s.adjust;
@@ -227,29 +224,51 @@ void run_report(const report_settings& s) {
   for (std::size_t i = 0; i < datasets.front().level_count(); ++i) n.push_back(datasets.front().n(i));
   request.contrasts = build_contrasts(s.contrasts, datasets.front().levels, n);
 
-  report_content content = gather(run_comparison(prepare(std::move(datasets.front()), s.trim), request));
-  content.command = reproducing_command(s, content.result.options.seed);
-
-  output_options out;
-  out.output = s.output;
-  if (format == "html") {
-    write_output(out, [&](std::ostream& o) { write_html_report(o, content); });
-  } else {
-    // The figures go beside the Markdown file, named after it, and are written first so that
-    // the Markdown never links a file that is not there.
-    const fs::path target(s.output);
-    const std::string stem = target.stem().string();
-    const markdown_report md = write_markdown_report(content, stem);
-    for (const auto& [name, svg_text] : md.figures) {
-      output_options figure;
-      figure.output = (target.has_parent_path() ? target.parent_path() / name : fs::path(name)).string();
-      write_output(figure, [&](std::ostream& o) { o << svg_text; });
+  // Several responses: one complete report per response, named after the output file and the
+  // response (panel.html -> panel-crisp.html), each with the same contrasts, methods and seed.
+  const bool batch = datasets.size() > 1;
+  std::vector<std::string> written;
+  for (auto& data : datasets) {
+    std::string target_name = s.output;
+    if (batch) {
+      std::string safe;
+      for (char ch : data.response)
+        safe += (std::isalnum(static_cast<unsigned char>(ch)) || ch == '-' || ch == '_' || ch == '.') ? ch : '_';
+      const fs::path t(s.output);
+      target_name = (t.parent_path() / (t.stem().string() + "-" + safe + t.extension().string())).string();
     }
-    write_output(out, [&](std::ostream& o) { o << md.markdown; });
+    comparison result;
+    try {
+      result = run_comparison(prepare(std::move(data), s.trim), request);
+    } catch (const analysis_error& e) {
+      if (!batch) throw;
+      if (!s.quiet) std::cerr << "note: no report for response '" << target_name << "': " << e.what() << '\n';
+      continue;
+    }
+    report_content content = gather(std::move(result));
+    content.command = reproducing_command(s, content.result.options.seed);
+    output_options out;
+    out.output = target_name;
+    if (format == "html") {
+      write_output(out, [&](std::ostream& o) { write_html_report(o, content); });
+    } else {
+      // The figures go beside the Markdown file, named after it, and are written first so that
+      // the Markdown never links a file that is not there.
+      const fs::path target(target_name);
+      const std::string stem = target.stem().string();
+      const markdown_report md = write_markdown_report(content, stem);
+      for (const auto& [name, svg_text] : md.figures) {
+        output_options figure;
+        figure.output = (target.has_parent_path() ? target.parent_path() / name : fs::path(name)).string();
+        write_output(figure, [&](std::ostream& o) { o << svg_text; });
+      }
+      write_output(out, [&](std::ostream& o) { o << md.markdown; });
+    }
+    written.push_back(target_name + " (seed " + std::to_string(content.result.options.seed) + ")");
   }
-  if (!s.quiet) {
-    std::cerr << "report written to " << s.output << " (seed " << content.result.options.seed << ")\n";
-  }
+  if (written.empty()) throw analysis_error("no response could be reported; see the notes above");
+  if (!s.quiet)
+    for (const auto& w : written) std::cerr << "report written to " << w << "\n";
 }
 
 }  // namespace

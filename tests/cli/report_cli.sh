@@ -93,5 +93,9 @@ set +e
   -o "$work/two.html" 2>"$work/err"
 status=$?
 set -e
-[[ $status -eq 2 ]] || fail "two responses gave exit $status, expected 2"
+# Several responses (batch mode): one complete report per response, named after the response.
+[[ $status -eq 0 ]] || fail "two responses gave exit $status, expected 0"
+[[ -s $work/two-fresh_mass_g.html && -s $work/two-height_cm.html ]] || fail "batch reports missing"
+grep -q "height_cm" "$work/two-height_cm.html" || fail "batch report does not name its response"
+[[ ! -e $work/two.html ]] || fail "batch mode wrote the plain file name too"
 echo "report command: HTML and Markdown on the demo data, figures, escaping and errors behave"
