@@ -2,6 +2,8 @@
 // Monte Carlo p-values). Outside references are named beside each check.
 #include <doctest/doctest.h>
 
+#include <cstdlib>
+
 #include <algorithm>
 #include <cmath>
 #include <functional>
@@ -205,9 +207,17 @@ TEST_CASE("Monte Carlo p lies in its own 99% interval around the exact p, and is
       inside += ci[0] <= c["p_exact"].num() && c["p_exact"].num() <= ci[1];
     }
   }
-  // each interval covers with probability 0.99; over these fixed seeds all do (a miss means a
-  // biased generator or a wrong count, a one-in-a-hundred chance per interval otherwise)
-  CHECK(inside == total);
+  // Each interval covers with probability 0.99. On the committed fixtures with these fixed seeds
+  // all do (a miss there means a biased generator or a wrong count). The live run draws new
+  // designs, so misses are binomial(total, 0.01): allow the count whose upper tail is below
+  // about 1e-6 (6 of 36), so that the live test fails for a real fault, not for chance.
+  const bool live = std::getenv("CONTRASTA_FIXTURE") != nullptr;
+  const std::size_t misses = total - inside;
+  if (live) {
+    CHECK(misses <= 2 + total / 8);
+  } else {
+    CHECK(misses == 0);
+  }
 }
 
 TEST_CASE("Monte Carlo permutation is bit-identical for 1, 2, 4 and 8 threads") {

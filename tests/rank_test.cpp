@@ -5,6 +5,8 @@
 
 #include <doctest/doctest.h>
 
+#include <cstdlib>
+
 #include <algorithm>
 #include <cmath>
 #include <limits>
@@ -293,12 +295,18 @@ TEST_CASE("rank contrast: Monte Carlo p brackets the exact p of scipy.stats.perm
   analysis_options o;
   o.exact = exact_mode::never;
   o.resamples = 20'000;
-  o.seed = 12345;
   o.threads = 2;
-  const method_result r = rank_contrast(p, contrast{"k", c["coefficients"].numbers(), "k"}, o);
-  CHECK(!r.exact);
-  REQUIRE(r.p_interval.has_value());
-  CHECK((*r.p_interval)[0] <= c["p"].num());
-  CHECK(c["p"].num() <= (*r.p_interval)[1]);
-  CHECK(r.method == "rank");
+  // Three seeds: on the committed fixture all three intervals contain the exact p. In the live
+  // run (new data each time) a 99% interval misses by chance once in a hundred, so one miss of
+  // three is allowed there (two misses: probability 3e-4).
+  int misses = 0;
+  for (std::uint64_t seed : {12345u, 777u, 4242u}) {
+    o.seed = seed;
+    const method_result r = rank_contrast(p, contrast{"k", c["coefficients"].numbers(), "k"}, o);
+    CHECK(!r.exact);
+    REQUIRE(r.p_interval.has_value());
+    misses += !((*r.p_interval)[0] <= c["p"].num() && c["p"].num() <= (*r.p_interval)[1]);
+    CHECK(r.method == "rank");
+  }
+  CHECK(misses <= (std::getenv("CONTRASTA_FIXTURE") != nullptr ? 1 : 0));
 }
