@@ -118,6 +118,40 @@ std::vector<contrast> build_contrasts(const contrast_options& c, const std::vect
   return out;
 }
 
+void add_method_options(CLI::App* command, method_options& m) {
+  command->add_option("--method", m.methods,
+                      "comma list of pooled, welch, trimmed, permutation, bootstrap, rank, mann-whitney, brunner-munzel, "
+                      "dunn; all; auto (the advised method, default)")
+      ->delimiter(',');
+  command->add_option("--adjust", m.adjust,
+                      "multiplicity adjustment over the contrasts: none, bonferroni, holm, sidak, hochberg, bh, by, "
+                      "scheffe, tukey, games-howell, dunnett, maxt (default none)");
+  command->add_option("--trim", m.trim, "proportion trimmed from each end for trimmed means (default 0.2)");
+  command->add_option("--resamples", m.resamples, "Monte Carlo permutations or bootstrap resamples (default 99999)")
+      ->check(CLI::Range(std::uint64_t{99}, std::uint64_t{1'000'000'000}));
+  command->add_option("--exact", m.exact, "enumerate every arrangement: auto (when few enough), always, never")
+      ->check(CLI::IsMember({"auto", "always", "never"}));
+  command->add_option("--max-arrangements", m.max_arrangements,
+                      "with --exact auto: enumerate when there are at most this many arrangements (default 20000000)");
+  command->add_option("--interval", m.interval, "bootstrap interval: percentile, bca (default), studentized")
+      ->check(CLI::IsMember({"percentile", "bca", "studentized"}));
+  command->add_option("--statistic", m.statistic,
+                      "permutation statistic: studentized (Welch t, default) or raw (the contrast itself)")
+      ->check(CLI::IsMember({"studentized", "raw"}));
+}
+
+void apply_method_options(const method_options& m, analysis_options& o) {
+  if (m.trim < 0 || m.trim >= 0.5) throw usage_error("--trim must be at least 0 and below 0.5");
+  o.trim = m.trim;
+  o.resamples = m.resamples;
+  o.exact = m.exact == "always" ? exact_mode::always : m.exact == "never" ? exact_mode::never : exact_mode::automatic;
+  o.max_arrangements = m.max_arrangements;
+  o.interval = m.interval == "percentile"    ? bootstrap_interval::percentile
+               : m.interval == "studentized" ? bootstrap_interval::studentized
+                                             : bootstrap_interval::bca;
+  o.statistic = m.statistic == "raw" ? permutation_statistic::raw : permutation_statistic::studentized;
+}
+
 void add_output_options(CLI::App* command, output_options& o, const std::vector<std::string>& formats) {
   std::string list;
   for (const auto& f : formats) list += (list.empty() ? "" : "|") + f;

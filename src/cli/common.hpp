@@ -46,6 +46,22 @@ void add_contrast_options(CLI::App* command, contrast_options& c);
 std::vector<contrast> build_contrasts(const contrast_options& c, const std::vector<std::string>& levels,
                                       const std::vector<std::size_t>& n);
 
+// The method options shared by compare and report: which methods, which adjustment, and the
+// settings of the trimmed, permutation and bootstrap methods.
+struct method_options {
+  std::vector<std::string> methods = {"auto"};
+  std::string adjust = "none";
+  double trim = 0.2;
+  std::uint64_t resamples = 99'999;
+  std::string exact = "auto";
+  std::uint64_t max_arrangements = 20'000'000;
+  std::string interval = "bca";
+  std::string statistic = "studentized";
+};
+void add_method_options(CLI::App* command, method_options& m);
+// Copies the method settings into analysis_options (after make_analysis_options); checks --trim.
+void apply_method_options(const method_options& m, analysis_options& o);
+
 struct output_options {
   std::string format = "table";
   std::string output;  // -o FILE; empty = standard output

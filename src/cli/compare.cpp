@@ -23,15 +23,8 @@ struct compare_settings {
   contrast_options contrasts;
   output_options output;
   common_run_options run;
-  std::vector<std::string> methods = {"auto"};
-  std::string adjust = "none";
+  method_options method;
   std::string adjust_across = "bh";
-  double trim = 0.2;
-  std::uint64_t resamples = 99'999;
-  std::string exact = "auto";
-  std::uint64_t max_arrangements = 20'000'000;
-  std::string interval = "bca";
-  std::string statistic = "studentized";
   bool no_effect_sizes = false;
   bool full = false;  // batch mode: every response's full table instead of the compact summary
 };
@@ -63,20 +56,12 @@ void adjust_across_responses(std::vector<comparison>& runs, const std::string& m
 }
 
 void run_compare(const compare_settings& s) {
-  if (s.trim < 0 || s.trim >= 0.5) throw usage_error("--trim must be at least 0 and below 0.5");
   auto datasets = load_datasets(s.data);
   comparison_request request;
-  request.methods = s.methods;
-  request.adjust = s.adjust;
+  request.methods = s.method.methods;
+  request.adjust = s.method.adjust;
   request.options = make_analysis_options(s.run);
-  request.options.trim = s.trim;
-  request.options.resamples = s.resamples;
-  request.options.exact = s.exact == "always" ? exact_mode::always : s.exact == "never" ? exact_mode::never : exact_mode::automatic;
-  request.options.max_arrangements = s.max_arrangements;
-  request.options.interval = s.interval == "percentile" ? bootstrap_interval::percentile
-                             : s.interval == "studentized" ? bootstrap_interval::studentized
-                                                           : bootstrap_interval::bca;
-  request.options.statistic = s.statistic == "raw" ? permutation_statistic::raw : permutation_statistic::studentized;
+  apply_method_options(s.method, request.options);
   request.options.allow_linear = s.contrasts.allow_linear;
   request.effect_sizes = !s.no_effect_sizes;
   const bool batch = datasets.size() > 1;
@@ -93,7 +78,7 @@ void run_compare(const compare_settings& s) {
   for (std::size_t i = 0; i < datasets.size(); ++i) names[i] = datasets[i].response;
   auto analyse = [&](std::size_t i) {
     try {
-      runs[i] = run_comparison(prepare(std::move(datasets[i]), s.trim), request);
+      runs[i] = run_comparison(prepare(std::move(datasets[i]), s.method.trim), request);
     } catch (const analysis_error& e) {
       if (!batch) throw;
       failures[i] = e.what();
@@ -166,28 +151,10 @@ void add_compare_command(CLI::App& app) {
       "  contrasta compare panel.csv --group recipe --response crisp,salty --family versus=classic --format json");
   add_data_options(cmd, settings->data);
   add_contrast_options(cmd, settings->contrasts);
-  cmd->add_option("--method", settings->methods,
-                  "comma list of pooled, welch, trimmed, permutation, bootstrap, rank, mann-whitney, brunner-munzel, dunn; "
-                  "all; auto (the advised method, default)")
-      ->delimiter(',');
-  cmd->add_option("--adjust", settings->adjust,
-                  "multiplicity adjustment over the contrasts: none, bonferroni, holm, sidak, hochberg, bh, by, scheffe, "
-                  "tukey, games-howell, dunnett, maxt (default none)");
+  add_method_options(cmd, settings->method);
   cmd->add_option("--adjust-across", settings->adjust_across,
                   "with several responses: adjustment across responses per contrast and method: bh, by, holm, none (default bh)")
       ->check(CLI::IsMember({"bh", "by", "holm", "none", "bonferroni", "hochberg", "sidak"}));
-  cmd->add_option("--trim", settings->trim, "proportion trimmed from each end for trimmed means (default 0.2)");
-  cmd->add_option("--resamples", settings->resamples, "Monte Carlo permutations or bootstrap resamples (default 99999)")
-      ->check(CLI::Range(std::uint64_t{99}, std::uint64_t{1'000'000'000}));
-  cmd->add_option("--exact", settings->exact, "enumerate every arrangement: auto (when few enough), always, never")
-      ->check(CLI::IsMember({"auto", "always", "never"}));
-  cmd->add_option("--max-arrangements", settings->max_arrangements,
-                  "with --exact auto: enumerate when there are at most this many arrangements (default 20000000)");
-  cmd->add_option("--interval", settings->interval, "bootstrap interval: percentile, bca (default), studentized")
-      ->check(CLI::IsMember({"percentile", "bca", "studentized"}));
-  cmd->add_option("--statistic", settings->statistic,
-                  "permutation statistic: studentized (Welch t, default) or raw (the contrast itself)")
-      ->check(CLI::IsMember({"studentized", "raw"}));
   cmd->add_flag("--no-effect-sizes", settings->no_effect_sizes,
                 "skip the standardized effect sizes and their intervals (faster for thousands of responses)");
   cmd->add_flag("--full", settings->full,

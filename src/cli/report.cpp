@@ -34,14 +34,7 @@ struct report_settings {
   std::string output;
   std::string format;  // html | markdown; empty: from the file extension
   bool quiet = false;
-  std::vector<std::string> methods = {"auto"};
-  std::string adjust = "none";
-  double trim = 0.2;
-  std::uint64_t resamples = 99'999;
-  std::string exact = "auto";
-  std::uint64_t max_arrangements = 20'000'000;
-  std::string interval = "bca";
-  std::string statistic = "studentized";
+  method_options method;
 };
 
 std::string format_of(const report_settings& s) {
@@ -201,23 +194,13 @@ std::string reproducing_command(const report_settings& s, std::uint64_t seed) {
 }
 
 void run_report(const report_settings& s) {
-  if (s.trim < 0 || s.trim >= 0.5) throw usage_error("--trim must be at least 0 and below 0.5");
   const std::string format = format_of(s);
   auto datasets = load_datasets(s.data);
   comparison_request request;
-  request.methods = s.methods;
-  request.adjust = s.adjust;
+  request.methods = s.method.methods;
+  request.adjust = s.method.adjust;
   request.options = make_analysis_options(s.run);
-  request.options.trim = s.trim;
-  request.options.resamples = s.resamples;
-  request.options.exact = s.exact == "always"  ? exact_mode::always
-                          : s.exact == "never" ? exact_mode::never
-                                               : exact_mode::automatic;
-  request.options.max_arrangements = s.max_arrangements;
-  request.options.interval = s.interval == "percentile"    ? bootstrap_interval::percentile
-                             : s.interval == "studentized" ? bootstrap_interval::studentized
-                                                           : bootstrap_interval::bca;
-  request.options.statistic = s.statistic == "raw" ? permutation_statistic::raw : permutation_statistic::studentized;
+  apply_method_options(s.method, request.options);
   request.options.allow_linear = s.contrasts.allow_linear;
   request.options.progress = progress_printer(s.quiet, "resampling");
   std::vector<std::size_t> n;
@@ -239,7 +222,7 @@ void run_report(const report_settings& s) {
     }
     comparison result;
     try {
-      result = run_comparison(prepare(std::move(data), s.trim), request);
+      result = run_comparison(prepare(std::move(data), s.method.trim), request);
     } catch (const analysis_error& e) {
       if (!batch) throw;
       if (!s.quiet) std::cerr << "note: no report for response '" << target_name << "': " << e.what() << '\n';
@@ -288,27 +271,7 @@ void add_report_command(CLI::App& app) {
       "With .md, each plot is written as an SVG file beside it (NAME-observations.svg, ...).");
   add_data_options(cmd, settings->data);
   add_contrast_options(cmd, settings->contrasts);
-  cmd->add_option(
-         "--method", settings->methods,
-         "comma list of pooled, welch, trimmed, permutation, bootstrap, rank, mann-whitney, brunner-munzel, dunn; "
-         "all; auto (the advised method, default)")
-      ->delimiter(',');
-  cmd->add_option(
-      "--adjust", settings->adjust,
-      "multiplicity adjustment over the contrasts: none, bonferroni, holm, sidak, hochberg, bh, by, scheffe, "
-      "tukey, games-howell, dunnett, maxt (default none)");
-  cmd->add_option("--trim", settings->trim, "proportion trimmed from each end for trimmed means (default 0.2)");
-  cmd->add_option("--resamples", settings->resamples, "Monte Carlo permutations or bootstrap resamples (default 99999)")
-      ->check(CLI::Range(std::uint64_t{99}, std::uint64_t{1'000'000'000}));
-  cmd->add_option("--exact", settings->exact, "enumerate every arrangement: auto (when few enough), always, never")
-      ->check(CLI::IsMember({"auto", "always", "never"}));
-  cmd->add_option("--max-arrangements", settings->max_arrangements,
-                  "with --exact auto: enumerate when there are at most this many arrangements (default 20000000)");
-  cmd->add_option("--interval", settings->interval, "bootstrap interval: percentile, bca (default), studentized")
-      ->check(CLI::IsMember({"percentile", "bca", "studentized"}));
-  cmd->add_option("--statistic", settings->statistic,
-                  "permutation statistic: studentized (Welch t, default) or raw (the contrast itself)")
-      ->check(CLI::IsMember({"studentized", "raw"}));
+  add_method_options(cmd, settings->method);
   add_run_options(cmd, settings->run);
   cmd->add_option(
          "-o,--output", settings->output,
