@@ -56,17 +56,6 @@ std::string percent_text(double share, int decimals = 1) {
 
 // ---- JSON ----------------------------------------------------------------------------------
 
-void write_test_list(json_writer& json, const std::vector<overall_test>& tests) {
-  json.begin_array();
-  for (const auto& t : tests) {
-    json.begin_object();
-    json.field("test", t.test).field("statistic", t.statistic).field("df1", t.df1).field("df2", t.df2);
-    json.field("p_value", t.p_value).field("null", t.null_hypothesis);
-    json.end_object();
-  }
-  json.end_array();
-}
-
 void write_diagnostics_json(json_writer& json, const check_result& r) {
   const auto& p = r.prepared;
   const auto& d = r.diagnostics;

@@ -79,15 +79,20 @@ void write_anova_json(json_writer& json, const anova_table& a) {
   json.end_object();
 }
 
-void write_overall_json(json_writer& json, const std::vector<overall_test>& overall) {
-  json.key("overall").begin_array();
-  for (const auto& t : overall) {
+void write_test_list(json_writer& json, const std::vector<overall_test>& tests) {
+  json.begin_array();
+  for (const auto& t : tests) {
     json.begin_object();
     json.field("test", t.test).field("statistic", t.statistic).field("df1", t.df1).field("df2", t.df2);
     json.field("p_value", t.p_value).field("null", t.null_hypothesis);
     json.end_object();
   }
   json.end_array();
+}
+
+void write_overall_json(json_writer& json, const std::vector<overall_test>& overall) {
+  json.key("overall");
+  write_test_list(json, overall);
 }
 
 void write_recommendation_json(json_writer& json, const recommendation& r) {

@@ -29,6 +29,9 @@ void write_comparison_markdown(std::ostream& out, const comparison& c);
 void write_groups_json(json_writer& json, const prepared_data& p);
 void write_anova_json(json_writer& json, const anova_table& a);
 void write_overall_json(json_writer& json, const std::vector<overall_test>& overall);
+// A list of tests ({test, statistic, df1, df2, p_value, null}) as a JSON array (overall tests,
+// variance tests).
+void write_test_list(json_writer& json, const std::vector<overall_test>& tests);
 void write_recommendation_json(json_writer& json, const recommendation& r);
 void write_result_json(json_writer& json, const method_result& r);
 // "substrate.csv: response fresh_mass_g by substrate, 4 levels, 38 observations (2 missing)"
