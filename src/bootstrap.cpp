@@ -7,6 +7,7 @@
 // (sum c_g S*_g / n_g) and its within-group sums of squares without cancellation.
 #include <algorithm>
 #include <cmath>
+#include <memory>
 #include <sstream>
 
 #include "contrasta/error.hpp"
@@ -14,6 +15,7 @@
 #include "distributions.hpp"
 #include "monte_carlo_p.hpp"
 #include "random.hpp"
+#include "resample_kernels.hpp"
 #include "resample_core.hpp"
 #include "resample_intervals.hpp"
 
@@ -21,7 +23,7 @@ namespace contrasta {
 namespace detail {
 namespace {
 
-constexpr std::uint64_t resamples_per_block = 4096;
+constexpr std::uint64_t resamples_per_block = 2048;
 
 resampling_pool make_bootstrap_pool(const prepared_data& p, std::span<const std::size_t> levels) {
   resampling_pool pool;
@@ -40,85 +42,67 @@ resampling_pool make_bootstrap_pool(const prepared_data& p, std::span<const std:
 }
 
 // Draws resamples with replacement within each group and hands over the per-group sums of each
-// resample. The indices come in batches of k draws from one 64-bit word (batched Lemire, see
-// random.hpp) and are used at once: a batch's sums are kept apart and added only once the
-// batch passes its rejection check, so a redrawn batch leaves no trace.
+// resample. The draws and the gathered sums run in the vector kernels (resample_kernels.hpp), a
+// chunk of resamples at a time.
 class bootstrap_walker {
  public:
-  explicit bootstrap_walker(const resampling_pool& pool) : pool_(pool), sum_(pool.groups()), square_(pool.groups()) {
+  explicit bootstrap_walker(const resampling_pool& pool)
+      : pool_(pool), draws_(group_ranges(pool)), sum_(pool.groups()), square_(pool.groups()) {
+    for (const observation& o : pool.data) values_.push_back(o.value);
     for (std::size_t g = 0; g < pool.groups(); ++g) {
-      group_plan plan;
-      plan.n = static_cast<std::uint32_t>(pool.n(g));
-      std::uint64_t product = 1;
-      while (plan.per_batch < pool.n(g) && static_cast<uint128>(product) * plan.n <= (1ULL << 56)) {
-        product *= plan.n;
-        ++plan.per_batch;
-      }
-      plan.full_batches = static_cast<std::uint32_t>(pool.n(g) / plan.per_batch);
-      plan.full_threshold = (0 - product) % product;
-      plan.tail = static_cast<std::uint32_t>(pool.n(g) % plan.per_batch);
-      std::uint64_t tail_product = 1;
-      for (std::uint32_t i = 0; i < plan.tail; ++i) tail_product *= plan.n;
-      plan.tail_threshold = (0 - tail_product) % tail_product;
-      plans_.push_back(plan);
+      sizes_.push_back(static_cast<std::uint32_t>(pool.n(g)));
+      offsets_.push_back(static_cast<std::uint32_t>(pool.offsets[g]));
     }
+    shape_ = {static_cast<std::uint32_t>(pool.groups()), sizes_.data(), offsets_.data()};
+    scratch_.resize(draws_.count + 16);
+    out_.resize(chunk * 2 * pool.groups());
   }
 
   template <class Consume>
-  void run(block_random& random, std::uint64_t count, Consume&& consume) {
-    const observation* data = pool_.data.data();
-    for (std::uint64_t r = 0; r < count; ++r) {
-      unsigned lane = 0;
-      for (std::size_t g = 0; g < pool_.groups(); ++g) {
-        const group_plan& plan = plans_[g];
-        const observation* group = data + pool_.offsets[g];
-        const std::uint64_t n = plan.n;
-        double s = 0, q = 0;
-        auto batch = [&](pcg32& rng, std::uint32_t draws, std::uint64_t threshold) {
-          for (;;) {
-            std::uint64_t low = bits64(rng);
-            double bs = 0, bq = 0;
-            for (std::uint32_t i = 0; i < draws; ++i) {
-              const uint128 wide = static_cast<uint128>(low) * n;
-              const observation& o = group[static_cast<std::size_t>(wide >> 64)];
-              low = static_cast<std::uint64_t>(wide);
-              bs += o.value;
-              bq += o.square;
-            }
-            if (low >= threshold) {
-              s += bs;
-              q += bq;
-              return;
-            }
-          }
-        };
-        for (std::uint32_t b = 0; b < plan.full_batches; ++b)
-          batch(random.lanes[lane++ & 3], plan.per_batch, plan.full_threshold);
-        if (plan.tail) batch(random.lanes[lane++ & 3], plan.tail, plan.tail_threshold);
-        sum_[g] = s;
-        square_[g] = q;
+  void run(word_stream& words, std::uint64_t count, Consume&& consume) {
+    const resample_kernels& kernels = best_kernels();
+    const draw_plan plan = draws_.plan();
+    const std::size_t groups = pool_.groups();
+    for (std::uint64_t done = 0; done < count; done += chunk) {
+      const std::uint64_t m = std::min<std::uint64_t>(chunk, count - done);
+      kernels.bootstrap_sums(words, plan, shape_, values_.data(), m, out_.data(), scratch_.data());
+      const double* row = out_.data();
+      for (std::uint64_t r = 0; r < m; ++r) {
+        for (std::size_t g = 0; g < groups; ++g, row += 2) {
+          sum_[g] = row[0];
+          square_[g] = row[1];
+        }
+        consume(sum_.data(), square_.data());
       }
-      consume(sum_.data(), square_.data());
     }
   }
 
  private:
-  struct group_plan {
-    std::uint32_t n = 0, per_batch = 0, full_batches = 0, tail = 0;
-    std::uint64_t full_threshold = 0, tail_threshold = 0;  // 2^64 mod n^per_batch, 2^64 mod n^tail
-  };
+  static constexpr std::uint64_t chunk = 256;  // resamples per kernel call: the rows stay in L1
+
+  // n_g draws on [0, n_g) for each group g in turn
+  static draw_ranges group_ranges(const resampling_pool& pool) {
+    std::vector<std::uint32_t> ranges;
+    for (std::size_t g = 0; g < pool.groups(); ++g) ranges.insert(ranges.end(), pool.n(g), static_cast<std::uint32_t>(pool.n(g)));
+    return draw_ranges(ranges);
+  }
+
   const resampling_pool& pool_;
-  std::vector<group_plan> plans_;
-  std::vector<double> sum_, square_;
+  draw_ranges draws_;
+  std::vector<double> values_;
+  std::vector<std::uint32_t> sizes_, offsets_, scratch_;
+  bootstrap_shape shape_;
+  std::vector<double> out_, sum_, square_;
 };
 
 template <class Body>
 void for_each_bootstrap_block(std::uint64_t resamples, const analysis_options& o, Body&& body) {
   const std::uint64_t blocks = (resamples + resamples_per_block - 1) / resamples_per_block;
   run_blocks(blocks, o, [&](std::uint64_t b) {
-    block_random rng(o.seed, b, 1);
+    const auto words = std::make_unique<word_stream>();
+    start_words(*words, o.seed, b, 1);
     const std::uint64_t first = b * resamples_per_block;
-    body(rng, first, std::min(resamples_per_block, resamples - first), b);
+    body(*words, first, std::min(resamples_per_block, resamples - first), b);
   });
 }
 
@@ -176,7 +160,7 @@ method_result bootstrap_contrast(const prepared_data& p, const contrast& c, cons
     deviations.resize(m);
   std::vector<std::uint64_t> block_hits((m + resamples_per_block - 1) / resamples_per_block);
   std::vector<double> block_sum(block_hits.size()), block_square(block_hits.size());
-  for_each_bootstrap_block(m, o, [&](block_random& rng, std::uint64_t first, std::uint64_t count, std::uint64_t b) {
+  for_each_bootstrap_block(m, o, [&](word_stream& rng, std::uint64_t first, std::uint64_t count, std::uint64_t b) {
     bootstrap_walker walker(pool);
     std::uint64_t hits = 0, r = first;
     double s = 0, q = 0;
@@ -291,7 +275,7 @@ joint_resampling joint_bootstrap_statistics(const prepared_data& p, std::span<co
     out.observed.push_back(studentized_value(psi + p.data.centre * coefficient_sum, se2));
   }
   for_each_bootstrap_block(out.resamples, o,
-                           [&](block_random& rng, std::uint64_t first, std::uint64_t count, std::uint64_t) {
+                           [&](word_stream& rng, std::uint64_t first, std::uint64_t count, std::uint64_t) {
                              bootstrap_walker walker(pool);
                              double* row = out.statistics.data() + first * m;
                              walker.run(rng, count, [&](const double* ss, const double* qq) {

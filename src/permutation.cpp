@@ -1,5 +1,5 @@
 // Permutation tests of contrasts: exact enumeration over a revolving-door Gray code, or Monte
-// Carlo reassignment with a partial Fisher-Yates shuffle, one pcg32 stream per fixed block.
+// Carlo reassignment with a partial Fisher-Yates shuffle, one word stream per fixed block.
 //
 // The studentized statistic (Welch t of the contrast) keeps the test asymptotically valid for
 // the mean contrast under unequal variances (Janssen 1997, Stat. Prob. Letters 36:9-21; Chung &
@@ -7,6 +7,7 @@
 // under exchangeability it is exact (Fisher 1935; Pitman 1937).
 #include <algorithm>
 #include <cmath>
+#include <memory>
 #include <sstream>
 
 #include "combinatorics.hpp"
@@ -14,6 +15,7 @@
 #include "contrasta/resample.hpp"
 #include "monte_carlo_p.hpp"
 #include "random.hpp"
+#include "resample_kernels.hpp"
 #include "resample_core.hpp"
 
 namespace contrasta {
@@ -189,63 +191,71 @@ void walk_two_groups(const resampling_pool& pool, std::uint64_t first, std::uint
 // Random reassignments by a partial Fisher-Yates shuffle (Durstenfeld 1964) of the block's own
 // copy of the observations: position i = N-1, N-2, ... swaps with a uniform position in [0, i],
 // so the tail positions are a uniform random ordered selection. Groups 0..G-2 take the tail in
-// turn and accumulate their sums as they are filled; the last group's sums follow from the
-// totals. Continuing from the previous resample's order keeps every resample uniform.
+// turn; the last group's sums follow from the totals, so only N - n_last positions are drawn.
+// Continuing from the previous resample's order keeps every resample uniform. The draws, swaps
+// and sums run in the vector kernels (resample_kernels.hpp), a chunk of resamples at a time.
 class monte_carlo_walker {
  public:
   explicit monte_carlo_walker(const resampling_pool& pool)
-      : pool_(pool), data_(pool.data), sum_(pool.groups()), square_(pool.groups()) {
-    const std::size_t drawn = pool.size() - pool.n(pool.groups() - 1);
-    ranges_.resize(drawn);
-    for (std::size_t i = 0; i < drawn; ++i) ranges_[i] = static_cast<std::uint32_t>(pool.size() - i);
-    plan_ = plan_batches(ranges_);
-    draws_.resize(drawn);
+      : pool_(pool), draws_(drawn_ranges(pool)), sum_(pool.groups()), square_(pool.groups()) {
+    for (const observation& o : pool.data) data_.push_back(o.value);
+    data_.resize(pool.size() + 8, 0.0);  // the kernels read up to 8 past the end
+    for (std::size_t g = 0; g + 1 < pool.groups(); ++g) sizes_.push_back(static_cast<std::uint32_t>(pool.n(g)));
+    shape_ = {static_cast<std::uint32_t>(pool.size()), static_cast<std::uint32_t>(sizes_.size()), sizes_.data()};
+    scratch_.resize(draws_.count + 16);
+    out_.resize(chunk * 2 * sizes_.size());
   }
 
   template <class Consume>
-  void run(block_random& rng, std::uint64_t count, Consume&& consume) {
+  void run(word_stream& words, std::uint64_t count, Consume&& consume) {
+    const resample_kernels& kernels = best_kernels();
+    const draw_plan plan = draws_.plan();
     const std::size_t last = pool_.groups() - 1;
-    for (std::uint64_t r = 0; r < count; ++r) {
-      draw_bounded(rng, ranges_.data(), plan_, draws_.data());
-      std::size_t position = data_.size(), k = 0;
-      double s_rest = 0, q_rest = 0;
-      for (std::size_t g = 0; g < last; ++g) {
-        double s = 0, q = 0;
-        for (std::size_t end = position - pool_.n(g); position > end; ++k) {
-          --position;
-          const std::uint32_t j = draws_[k];
-          const observation picked = data_[j];
-          data_[j] = data_[position];
-          data_[position] = picked;
-          s += picked.value;
-          q += picked.square;
+    for (std::uint64_t done = 0; done < count; done += chunk) {
+      const std::uint64_t m = std::min<std::uint64_t>(chunk, count - done);
+      kernels.permutation_sums(words, plan, shape_, data_.data(), m, out_.data(), scratch_.data());
+      const double* row = out_.data();
+      for (std::uint64_t r = 0; r < m; ++r) {
+        double s_rest = 0, q_rest = 0;
+        for (std::size_t g = 0; g < last; ++g, row += 2) {
+          sum_[g] = row[0];
+          square_[g] = row[1];
+          s_rest += row[0];
+          q_rest += row[1];
         }
-        sum_[g] = s;
-        square_[g] = q;
-        s_rest += s;
-        q_rest += q;
+        sum_[last] = pool_.total - s_rest;
+        square_[last] = pool_.total_square - q_rest;
+        consume(sum_.data(), square_.data());
       }
-      sum_[last] = pool_.total - s_rest;
-      square_[last] = pool_.total_square - q_rest;
-      consume(sum_.data(), square_.data());
     }
   }
 
  private:
+  static constexpr std::uint64_t chunk = 256;  // resamples per kernel call: the rows stay in L1
+
+  static draw_ranges drawn_ranges(const resampling_pool& pool) {
+    std::vector<std::uint32_t> ranges;
+    const std::size_t drawn = pool.size() - pool.n(pool.groups() - 1);
+    for (std::size_t i = 0; i < drawn; ++i) ranges.push_back(static_cast<std::uint32_t>(pool.size() - i));
+    return draw_ranges(ranges);
+  }
+
   const resampling_pool& pool_;
-  std::vector<observation> data_;
-  std::vector<std::uint32_t> ranges_, draws_;
-  std::vector<draw_batch> plan_;
-  std::vector<double> sum_, square_;
+  draw_ranges draws_;
+  std::vector<double> data_;
+  std::vector<std::uint32_t> sizes_, scratch_;
+  permutation_shape shape_;
+  std::vector<double> out_, sum_, square_;
 };
 
 template <class Body>
 void for_each_monte_carlo_block(std::uint64_t resamples, const analysis_options& o, Body&& body) {
   const std::uint64_t blocks = (resamples + resamples_per_block - 1) / resamples_per_block;
   run_blocks(blocks, o, [&](std::uint64_t b) {
-    block_random rng(o.seed, b, 0);
+    const auto words = std::make_unique<word_stream>();
+    start_words(*words, o.seed, b, 0);
     const std::uint64_t first = b * resamples_per_block;
-    body(rng, first, std::min(resamples_per_block, resamples - first), b);
+    body(*words, first, std::min(resamples_per_block, resamples - first), b);
   });
 }
 
@@ -404,7 +414,7 @@ method_result permutation_contrast(const prepared_data& p, const contrast& c, co
     total = o.resamples;
     if (total == 0) throw usage_error("the number of resamples must be at least 1");
     std::vector<std::uint64_t> block_hits((total + resamples_per_block - 1) / resamples_per_block);
-    for_each_monte_carlo_block(total, o, [&](block_random& rng, std::uint64_t, std::uint64_t count, std::uint64_t b) {
+    for_each_monte_carlo_block(total, o, [&](word_stream& rng, std::uint64_t, std::uint64_t count, std::uint64_t b) {
       monte_carlo_walker walker(pool);
       std::uint64_t local = 0;
       walker.run(rng, count, [&](const double* ss, const double* qq) { local += is_extreme(ss, qq); });
@@ -509,7 +519,7 @@ joint_resampling joint_permutation_statistics(const prepared_data& p, std::span<
     });
   } else {
     for_each_monte_carlo_block(out.resamples, o,
-                               [&](block_random& rng, std::uint64_t first, std::uint64_t count, std::uint64_t) {
+                               [&](word_stream& rng, std::uint64_t first, std::uint64_t count, std::uint64_t) {
                                  monte_carlo_walker walker(pool);
                                  double* row = out.statistics.data() + first * m;
                                  walker.run(rng, count, [&](const double* ss, const double* qq) {

@@ -1,0 +1,84 @@
+// The inner loops of Monte Carlo resampling, compiled once per instruction-set level and picked
+// at run time (quality.md P1, P3): random words from eight pcg32 streams side by side, bounded
+// integers by Lemire's multiply-shift, then the group sums of each resample.
+//
+// Every level computes the same numbers bit for bit: the integer work is exact, and the sums
+// are defined lane by lane (see `lane_sum` below), so the vector width only changes how many
+// lanes one instruction handles, never the order of the additions. Results therefore depend on
+// (seed, block) alone: not on the thread count and not on the processor.
+#pragma once
+#include <cstddef>
+#include <cstdint>
+
+namespace contrasta::detail {
+
+// Eight pcg32 streams (O'Neill 2014, PCG-XSH-RR 64/32) read as one stream of 32-bit words:
+// word k is output k / 8 of lane k % 8. The words are made eight at a time into a buffer.
+struct word_stream {
+  static constexpr std::uint32_t lanes = 8;
+  static constexpr std::uint32_t capacity = 4096;  // words per refill
+  static constexpr std::uint32_t padding = 64;     // readable words beyond the end (vector tails)
+  std::uint64_t state[lanes];
+  std::uint64_t increment[lanes];  // odd: pcg32's stream constant
+  std::uint32_t position = 0, end = 0;
+  alignas(64) std::uint32_t words[capacity + padding] = {};
+};
+
+// pcg32's multiplier (the 64-bit LCG multiplier of pcg-cpp, from L'Ecuyer 1999).
+inline constexpr std::uint64_t pcg_multiplier = 6364136223846793005ULL;
+
+// The bounded draws of one resample, in the order they use words: draw i is uniform on
+// [0, range[i]). threshold[i] = 2^32 mod range[i]: a word whose product with range[i] has a low
+// half below it is rejected and the next word is tried (Lemire 2019, ACM TOMACS 29:1, Alg. 5).
+// Both arrays hold `count` entries and then padding up to a multiple of 16 with range 1 and
+// threshold 0 (never rejected, never used).
+struct draw_plan {
+  const std::uint32_t* range = nullptr;
+  const std::uint32_t* threshold = nullptr;
+  std::uint32_t count = 0;
+};
+
+// A permutation resample reassigns the N pooled observations: a partial Fisher-Yates shuffle
+// (Durstenfeld 1964) fills positions N-1, N-2, ... from a uniform position in [0, i], group 0
+// takes the first sizes[0] positions filled, group 1 the next sizes[1], and so on for the
+// `drawn` groups; the last group keeps what is left and its sums follow from the totals.
+struct permutation_shape {
+  std::uint32_t n = 0;      // pooled observations
+  std::uint32_t drawn = 0;  // groups filled by the shuffle (all but the last)
+  const std::uint32_t* sizes = nullptr;
+};
+
+// A bootstrap resample draws sizes[g] values with replacement from group g, whose values are
+// values[offsets[g] .. offsets[g] + sizes[g]).
+struct bootstrap_shape {
+  std::uint32_t groups = 0;
+  const std::uint32_t* sizes = nullptr;
+  const std::uint32_t* offsets = nullptr;
+};
+
+// One instruction-set level's kernels. Output rows: per resample, (sum, sum of squares) of each
+// drawn group in order: 2 * drawn doubles for a permutation, 2 * groups for a bootstrap.
+struct resample_kernels {
+  const char* level;
+  // Makes words until the buffer holds `capacity` of them from position on.
+  void (*refill)(word_stream& stream);
+  // `count` resamples' draws of the plan, one row of plan.count indices each (out holds
+  // count * plan.count + 16): the draws the two kernels below make, for tests.
+  void (*draws)(word_stream& stream, const draw_plan& plan, std::uint64_t count, std::uint32_t* out);
+  // `count` reassignments of data[0..n) (n + 8 doubles readable), continuing from its order.
+  // scratch holds plan.count + 16 indices.
+  void (*permutation_sums)(word_stream& stream, const draw_plan& plan, const permutation_shape& shape, double* data,
+                           std::uint64_t count, double* out, std::uint32_t* scratch);
+  // `count` resamples with replacement within each group.
+  void (*bootstrap_sums)(word_stream& stream, const draw_plan& plan, const bootstrap_shape& shape,
+                         const double* values, std::uint64_t count, double* out, std::uint32_t* scratch);
+};
+
+// The fastest level this processor runs.
+const resample_kernels& best_kernels();
+
+// Every level this processor runs, fastest first, ending with the portable one (for tests
+// that check the levels agree bit for bit). Returns how many were written to out (at most 4).
+std::size_t available_kernels(const resample_kernels** out);
+
+}  // namespace contrasta::detail
