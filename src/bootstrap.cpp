@@ -6,7 +6,9 @@
 // Each group is stored centred on its own mean, so a resample's sums give psi* - psi directly
 // (sum c_g S*_g / n_g) and its within-group sums of squares without cancellation.
 #include <algorithm>
+#include <array>
 #include <cmath>
+#include <limits>
 #include <memory>
 #include <sstream>
 
@@ -18,6 +20,7 @@
 #include "resample_kernels.hpp"
 #include "resample_core.hpp"
 #include "resample_intervals.hpp"
+#include "bootstrap_table.hpp"
 
 namespace contrasta {
 namespace detail {
@@ -42,30 +45,24 @@ resampling_pool make_bootstrap_pool(const prepared_data& p, std::span<const std:
 }
 
 // Draws resamples with replacement within each group and hands over the per-group sums of each
-// resample. The draws and the gathered sums run in the vector kernels (resample_kernels.hpp), a
-// chunk of resamples at a time.
+// resample. The draws and sums run in the vector kernels (resample_kernels.hpp), a chunk of
+// resamples at a time.
 class bootstrap_walker {
  public:
-  explicit bootstrap_walker(const resampling_pool& pool)
-      : pool_(pool), draws_(group_ranges(pool)), sum_(pool.groups()), square_(pool.groups()) {
-    for (const observation& o : pool.data) values_.push_back(o.value);
-    for (std::size_t g = 0; g < pool.groups(); ++g) {
-      sizes_.push_back(static_cast<std::uint32_t>(pool.n(g)));
-      offsets_.push_back(static_cast<std::uint32_t>(pool.offsets[g]));
-    }
-    shape_ = {static_cast<std::uint32_t>(pool.groups()), sizes_.data(), offsets_.data()};
+  explicit bootstrap_walker(const bootstrap_table& table)
+      : table_(table), draws_(table.ranges, 4), shape_(table.shape()), sum_(table.draws.size()), square_(table.draws.size()) {
     scratch_.resize(draws_.count + 16);
-    out_.resize(chunk * 2 * pool.groups());
+    out_.resize(chunk * 2 * table.draws.size());
   }
 
   template <class Consume>
   void run(word_stream& words, std::uint64_t count, Consume&& consume) {
     const resample_kernels& kernels = best_kernels();
     const draw_plan plan = draws_.plan();
-    const std::size_t groups = pool_.groups();
+    const std::size_t groups = table_.draws.size();
     for (std::uint64_t done = 0; done < count; done += chunk) {
       const std::uint64_t m = std::min<std::uint64_t>(chunk, count - done);
-      kernels.bootstrap_sums(words, plan, shape_, values_.data(), m, out_.data(), scratch_.data());
+      kernels.bootstrap_sums(words, plan, shape_, table_.entries.data(), m, out_.data(), scratch_.data());
       const double* row = out_.data();
       for (std::uint64_t r = 0; r < m; ++r) {
         for (std::size_t g = 0; g < groups; ++g, row += 2) {
@@ -80,18 +77,10 @@ class bootstrap_walker {
  private:
   static constexpr std::uint64_t chunk = 256;  // resamples per kernel call: the rows stay in L1
 
-  // n_g draws on [0, n_g) for each group g in turn
-  static draw_ranges group_ranges(const resampling_pool& pool) {
-    std::vector<std::uint32_t> ranges;
-    for (std::size_t g = 0; g < pool.groups(); ++g) ranges.insert(ranges.end(), pool.n(g), static_cast<std::uint32_t>(pool.n(g)));
-    return draw_ranges(ranges);
-  }
-
-  const resampling_pool& pool_;
+  const bootstrap_table& table_;
   draw_ranges draws_;
-  std::vector<double> values_;
-  std::vector<std::uint32_t> sizes_, offsets_, scratch_;
   bootstrap_shape shape_;
+  std::vector<std::uint32_t> scratch_;
   std::vector<double> out_, sum_, square_;
 };
 
@@ -136,6 +125,7 @@ method_result bootstrap_contrast(const prepared_data& p, const contrast& c, cons
   const std::vector<std::size_t> levels = involved_levels(std::span(&c, 1));
   const resampling_pool pool = make_bootstrap_pool(p, levels);
   const contrast_terms terms = make_terms(c, pool);
+  const bootstrap_table table(pool);
 
   double coefficient_sum = 0, psi = 0, se2 = 0;
   for (std::size_t level : levels) {
@@ -152,16 +142,14 @@ method_result bootstrap_contrast(const prepared_data& p, const contrast& c, cons
 
   const bool keep_t = o.interval == bootstrap_interval::studentized;
   const std::uint64_t m = o.resamples;
-  std::vector<double> deviations;  // psi* - psi, for percentile and BCa
-  std::vector<double> t_star;      // (psi* - psi)/SE*, for the studentized interval
-  if (keep_t)
-    t_star.resize(m);
-  else
-    deviations.resize(m);
+  // psi* - psi for percentile and BCa, or (psi* - psi)/SE* for the studentized interval: left
+  // uninitialised, so that the blocks' threads touch their own pages first
+  const std::unique_ptr<double[]> kept(new double[m]);
+  const std::span<double> deviations(kept.get(), keep_t ? 0 : m), t_star(kept.get(), keep_t ? m : 0);
   std::vector<std::uint64_t> block_hits((m + resamples_per_block - 1) / resamples_per_block);
   std::vector<double> block_sum(block_hits.size()), block_square(block_hits.size());
   for_each_bootstrap_block(m, o, [&](word_stream& rng, std::uint64_t first, std::uint64_t count, std::uint64_t b) {
-    bootstrap_walker walker(pool);
+    bootstrap_walker walker(table);
     std::uint64_t hits = 0, r = first;
     double s = 0, q = 0;
     walker.run(rng, count, [&](const double* ss, const double* qq) {
@@ -197,27 +185,40 @@ method_result bootstrap_contrast(const prepared_data& p, const contrast& c, cons
   const bool want_low = o.side != alternative::less, want_high = o.side != alternative::greater;
   std::string interval_words;
   double acceleration = not_available, bias = not_available;
+  // the quantile levels of the two ends (NaN: not wanted), both selected in one pass
+  auto quantiles = [](std::span<double> x, double level_low, double level_high) {
+    const double wanted[2] = {level_low, level_high};
+    const std::vector<double> q = quantiles_linear(x, wanted);
+    return std::array<double, 2>{q[0], q[1]};
+  };
+  const double unwanted = std::numeric_limits<double>::quiet_NaN();
   switch (o.interval) {
-    case bootstrap_interval::percentile:
+    case bootstrap_interval::percentile: {
       interval_words = "percentile";
-      if (want_low) low = estimate + quantile_linear(deviations, tail);
-      if (want_high) high = estimate + quantile_linear(deviations, 1 - tail);
+      const auto q = quantiles(deviations, want_low ? tail : unwanted, want_high ? 1 - tail : unwanted);
+      if (want_low) low = estimate + q[0];
+      if (want_high) high = estimate + q[1];
       break;
+    }
     case bootstrap_interval::bca: {
       interval_words = "BCa (bias-corrected and accelerated)";
       bias = bca_bias(deviations);
       acceleration = bca_acceleration(p, c);
       auto adjusted = [&](double z_alpha) { return bca_level(bias, acceleration, z_alpha); };
-      if (want_low) low = estimate + quantile_linear(deviations, adjusted(normal_quantile(tail)));
-      if (want_high) high = estimate + quantile_linear(deviations, adjusted(-normal_quantile(tail)));
+      const auto q = quantiles(deviations, want_low ? adjusted(normal_quantile(tail)) : unwanted,
+                               want_high ? adjusted(-normal_quantile(tail)) : unwanted);
+      if (want_low) low = estimate + q[0];
+      if (want_high) high = estimate + q[1];
       break;
     }
-    case bootstrap_interval::studentized:
+    case bootstrap_interval::studentized: {
       interval_words = "studentized (bootstrap-t with the Welch SE of each resample)";
       // [psi - t*_(1-a) SE, psi - t*_(a) SE] (Efron & Tibshirani 1993 eq. 12.22)
-      if (want_low) low = estimate - quantile_linear(t_star, 1 - tail) * se;
-      if (want_high) high = estimate - quantile_linear(t_star, tail) * se;
+      const auto q = quantiles(t_star, want_low ? 1 - tail : unwanted, want_high ? tail : unwanted);
+      if (want_low) low = estimate - q[0] * se;
+      if (want_high) high = estimate - q[1] * se;
       break;
+    }
   }
 
   method_result r;
@@ -256,6 +257,7 @@ joint_resampling joint_bootstrap_statistics(const prepared_data& p, std::span<co
   if (o.resamples == 0) throw usage_error("the number of resamples must be at least 1");
   const std::vector<std::size_t> levels = involved_levels(family);
   const resampling_pool pool = make_bootstrap_pool(p, levels);
+  const bootstrap_table table(pool);
   std::vector<contrast_terms> terms;
   for (const contrast& c : family) terms.push_back(make_terms(c, pool));
   const std::size_t m = family.size();
@@ -276,7 +278,7 @@ joint_resampling joint_bootstrap_statistics(const prepared_data& p, std::span<co
   }
   for_each_bootstrap_block(out.resamples, o,
                            [&](word_stream& rng, std::uint64_t first, std::uint64_t count, std::uint64_t) {
-                             bootstrap_walker walker(pool);
+                             bootstrap_walker walker(table);
                              double* row = out.statistics.data() + first * m;
                              walker.run(rng, count, [&](const double* ss, const double* qq) {
                                for (std::size_t j = 0; j < m; ++j) {

@@ -74,7 +74,7 @@ inline void start_words(word_stream& words, std::uint64_t seed, std::uint64_t bl
 // multiple of sixteen with range 1 and threshold 0 (resample_kernels.hpp, draw_plan).
 struct draw_ranges {
   std::vector<std::uint32_t> range, threshold;
-  explicit draw_ranges(std::span<const std::uint32_t> ranges) {
+  explicit draw_ranges(std::span<const std::uint32_t> ranges, std::uint32_t index_scale = 0) : scale(index_scale) {
     for (std::uint32_t r : ranges) {
       range.push_back(r);
       threshold.push_back((0U - r) % r);
@@ -85,8 +85,8 @@ struct draw_ranges {
     }
     count = static_cast<std::uint32_t>(ranges.size());
   }
-  draw_plan plan() const { return {range.data(), threshold.data(), count}; }
-  std::uint32_t count = 0;
+  draw_plan plan() const { return {range.data(), threshold.data(), count, scale}; }
+  std::uint32_t scale = 0, count = 0;
 };
 
 // Uniform double in [0, 1) with 53 random bits: the same value on every platform.

@@ -3,7 +3,7 @@
 // integers by Lemire's multiply-shift, then the group sums of each resample.
 //
 // Every level computes the same numbers bit for bit: the integer work is exact, and the sums
-// are defined lane by lane (see `lane_sum` below), so the vector width only changes how many
+// are defined lane by lane (kernels/body.hpp), so the vector width only changes how many
 // lanes one instruction handles, never the order of the additions. Results therefore depend on
 // (seed, block) alone: not on the thread count and not on the processor.
 #pragma once
@@ -32,10 +32,13 @@ inline constexpr std::uint64_t pcg_multiplier = 6364136223846793005ULL;
 // half below it is rejected and the next word is tried (Lemire 2019, ACM TOMACS 29:1, Alg. 5).
 // Both arrays hold `count` entries and then padding up to a multiple of 16 with range 1 and
 // threshold 0 (never rejected, never used).
+// A draw gives its index multiplied by 2^scale (the bootstrap wants byte offsets of 16-byte
+// entries: scale 4).
 struct draw_plan {
   const std::uint32_t* range = nullptr;
   const std::uint32_t* threshold = nullptr;
   std::uint32_t count = 0;
+  std::uint32_t scale = 0;
 };
 
 // A permutation resample reassigns the N pooled observations: a partial Fisher-Yates shuffle
@@ -48,12 +51,19 @@ struct permutation_shape {
   const std::uint32_t* sizes = nullptr;
 };
 
-// A bootstrap resample draws sizes[g] values with replacement from group g, whose values are
-// values[offsets[g] .. offsets[g] + sizes[g]).
+// A bootstrap resample draws n_g values with replacement from each group g. The values come as
+// entries of a table, each a (sum, sum of squares) pair: one entry per observation (x, x*x),
+// and for a small group also one per ordered pair of observations (x_i + x_j, x_i*x_i + x_j*x_j),
+// entry i * n + j, so that one draw on [0, n^2) stands for two independent draws on [0, n)
+// (Efron & Tibshirani 1993: the bootstrap sum is that of n independent uniform picks; how they
+// are grouped in the addition does not change the law). Group g makes draws[g] draws: the first
+// pairs[g] pick entries pair_base[g] + k, the rest single_base[g] + k.
 struct bootstrap_shape {
   std::uint32_t groups = 0;
-  const std::uint32_t* sizes = nullptr;
-  const std::uint32_t* offsets = nullptr;
+  const std::uint32_t* draws = nullptr;
+  const std::uint32_t* pairs = nullptr;
+  const std::uint32_t* pair_base = nullptr;
+  const std::uint32_t* single_base = nullptr;
 };
 
 // One instruction-set level's kernels. Output rows: per resample, (sum, sum of squares) of each
@@ -69,9 +79,10 @@ struct resample_kernels {
   // scratch holds plan.count + 16 indices.
   void (*permutation_sums)(word_stream& stream, const draw_plan& plan, const permutation_shape& shape, double* data,
                            std::uint64_t count, double* out, std::uint32_t* scratch);
-  // `count` resamples with replacement within each group.
+  // `count` resamples with replacement within each group; entries as in bootstrap_shape, the
+  // plan's scale 4.
   void (*bootstrap_sums)(word_stream& stream, const draw_plan& plan, const bootstrap_shape& shape,
-                         const double* values, std::uint64_t count, double* out, std::uint32_t* scratch);
+                         const double* entries, std::uint64_t count, double* out, std::uint32_t* scratch);
 };
 
 // The fastest level this processor runs.

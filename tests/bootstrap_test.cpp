@@ -2,12 +2,17 @@
 // test, reproducibility. Outside references are named beside each check.
 #include <doctest/doctest.h>
 
+#include <algorithm>
+#include <array>
 #include <cmath>
+#include <cstring>
+#include <limits>
 
 #include "contrasta/error.hpp"
 #include "contrasta/resample.hpp"
 #include "distributions.hpp"
 #include "fixture.hpp"
+#include "random.hpp"
 #include "resample_intervals.hpp"
 
 using namespace contrasta;
@@ -116,6 +121,48 @@ TEST_CASE("quantile with linear interpolation (numpy.percentile default)") {
   CHECK(detail::quantile_linear(x, 0.40) == doctest::Approx(2.6).epsilon(1e-14));
   CHECK(detail::quantile_linear(x, 0.90) == doctest::Approx(7.6).epsilon(1e-14));
   CHECK(detail::quantile_linear(x, 1.0) == 10);
+}
+
+TEST_CASE("several quantiles in one pass equal one selection per level") {
+  // the reference is quantile_linear above (numpy's definition), level by level
+  pcg32 rng = detail::block_stream(77, 0);
+  auto uniform = [&] { return detail::uniform01(rng); };
+  std::vector<std::vector<double>> cases;
+  for (std::size_t n : {20000u, 100000u, 16385u}) {
+    std::vector<double> x(n);
+    for (double& v : x) v = std::log(uniform() + 1e-12) - std::log(uniform() + 1e-12);  // skewed both ways
+    cases.push_back(x);
+    std::vector<double> tied(x);
+    for (double& v : tied) v = std::round(v * 4) / 4;  // many ties
+    cases.push_back(tied);
+    std::vector<double> sorted(x);
+    std::sort(sorted.begin(), sorted.end());  // a sample taken at a stride sees a sorted input
+    cases.push_back(sorted);
+    std::vector<double> infinite(x);
+    for (std::size_t i = 0; i < n; i += 7) infinite[i] = i % 2 ? HUGE_VAL : -HUGE_VAL;  // t* can be infinite
+    cases.push_back(infinite);
+  }
+  cases.push_back(std::vector<double>(50000, 3.25));  // constant
+  const double nan = std::numeric_limits<double>::quiet_NaN();
+  const std::vector<std::array<double, 2>> level_pairs{
+      {0.025, 0.975}, {0.0, 1.0}, {1e-9, 1 - 1e-9}, {0.5, 0.5000001}, {0.3, nan}, {0.9, 0.1}};
+  for (const auto& x : cases)
+    for (const auto& levels : level_pairs) {
+      CAPTURE(x.size());
+      CAPTURE(levels[0]);
+      CAPTURE(levels[1]);
+      std::vector<double> work(x);
+      const std::vector<double> got = detail::quantiles_linear(work, levels);
+      for (std::size_t i = 0; i < 2; ++i) {
+        if (std::isnan(levels[i])) {
+          CHECK(std::isnan(got[i]));
+          continue;
+        }
+        std::vector<double> one(x);
+        const double expected = detail::quantile_linear(one, levels[i]);
+        CHECK(std::memcmp(&got[i], &expected, sizeof expected) == 0);
+      }
+    }
 }
 
 TEST_CASE("BCa pieces: bias from ties counted half, level formula") {

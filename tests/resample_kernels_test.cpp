@@ -6,12 +6,15 @@
 #include <doctest/doctest.h>
 
 #include <array>
+#include <functional>
+#include <map>
 #include <cmath>
 #include <cstring>
 #include <memory>
 #include <string>
 #include <vector>
 
+#include "bootstrap_table.hpp"
 #include "random.hpp"
 #include "resample_kernels.hpp"
 
@@ -175,30 +178,114 @@ TEST_CASE("permutation sums: a Durstenfeld shuffle of the running order, summed 
   }
 }
 
-TEST_CASE("bootstrap sums: draws with replacement within each group, summed in the documented lane order") {
-  const std::vector<std::uint32_t> sizes{11, 100, 3}, offsets{0, 11, 111};
-  const std::vector<double> values = noisy_values(114, 8);
-  std::vector<std::uint32_t> ranges;
-  for (std::uint32_t s : sizes) ranges.insert(ranges.end(), s, s);
-  const draw_ranges d(ranges);
+namespace {
+
+resampling_pool pool_of(const std::vector<std::vector<double>>& groups) {
+  resampling_pool pool;
+  pool.offsets.push_back(0);
+  for (std::size_t g = 0; g < groups.size(); ++g) {
+    pool.levels.push_back(g);
+    for (double x : groups[g]) pool.data.push_back({x, x * x});
+    pool.offsets.push_back(pool.data.size());
+  }
+  return pool;
+}
+
+// `count` resamples of the bootstrap kernel of `level`, rows of (sum, square) per group.
+std::vector<double> bootstrap_rows(const resample_kernels& level, const bootstrap_table& table, std::uint64_t count,
+                                   std::uint64_t seed, std::uint64_t block) {
+  const draw_ranges d(table.ranges, 4);  // byte offsets of 16-byte entries
+  std::vector<double> out(count * 2 * table.draws.size());
+  std::vector<std::uint32_t> scratch(d.count + 16);
+  auto words = std::make_unique<word_stream>();
+  start_words(*words, seed, block, 1);
+  const bootstrap_shape shape = table.shape();
+  level.bootstrap_sums(*words, d.plan(), shape, table.entries.data(), count, out.data(), scratch.data());
+  return out;
+}
+
+}  // namespace
+
+TEST_CASE("bootstrap sums: one draw on [0, n^2) for each pair of picks in small groups, summed in lane order") {
+  // 11 and 4 observations get pair entries (odd and even n), 130 do not (more than 128)
+  const std::vector<std::vector<double>> groups{noisy_values(11, 8), noisy_values(4, 9), noisy_values(130, 10)};
+  const resampling_pool pool = pool_of(groups);
+  const bootstrap_table table(pool);
+  REQUIRE(table.pairs == std::vector<std::uint32_t>{5, 2, 0});
+  REQUIRE(table.draws == std::vector<std::uint32_t>{6, 2, 130});
   const std::uint64_t count = 500;
   for (const resample_kernels* k : levels()) {
     CAPTURE(std::string(k->level));
-    std::vector<double> out(count * 2 * sizes.size());
-    std::vector<std::uint32_t> scratch(d.count + 16);
-    auto words = std::make_unique<word_stream>();
-    start_words(*words, 3, 17, 1);
-    const bootstrap_shape shape{3, sizes.data(), offsets.data()};
-    k->bootstrap_sums(*words, d.plan(), shape, values.data(), count, out.data(), scratch.data());
+    const std::vector<double> out = bootstrap_rows(*k, table, count, 3, 17);
     reference_words ref(3, 17, 1);
     for (std::uint64_t r = 0; r < count; ++r)
-      for (std::size_t g = 0; g < sizes.size(); ++g) {
-        std::vector<double> drawn;
-        for (std::uint32_t i = 0; i < sizes[g]; ++i) drawn.push_back(values[offsets[g] + ref.bounded(sizes[g])]);
-        const auto expected = lane_sums(drawn);
-        REQUIRE(same_bits(out[(r * 3 + g) * 2], expected[0]));
-        REQUIRE(same_bits(out[(r * 3 + g) * 2 + 1], expected[1]));
+      for (std::size_t g = 0; g < groups.size(); ++g) {
+        const std::vector<double>& x = groups[g];
+        const auto n = static_cast<std::uint32_t>(x.size());
+        // the picks of this group: pairs (i, j) = (k / n, k mod n) of one draw on [0, n^2), then
+        // single draws on [0, n); entry sums added in lane order i mod 8
+        double a[8] = {}, q[8] = {};
+        std::uint32_t i = 0;
+        for (; i < table.pairs[g]; ++i) {
+          const std::uint32_t pick = ref.bounded(n * n), u = pick / n, v = pick % n;
+          a[i % 8] += x[u] + x[v];
+          q[i % 8] += x[u] * x[u] + x[v] * x[v];
+        }
+        for (; i < table.draws[g]; ++i) {
+          const std::uint32_t u = ref.bounded(n);
+          a[i % 8] += x[u];
+          q[i % 8] += x[u] * x[u];
+        }
+        auto tree = [](const double* t) { return ((t[0] + t[4]) + (t[2] + t[6])) + ((t[1] + t[5]) + (t[3] + t[7])); };
+        REQUIRE(same_bits(out[(r * 3 + g) * 2], tree(a)));
+        REQUIRE(same_bits(out[(r * 3 + g) * 2 + 1], tree(q)));
       }
+  }
+}
+
+TEST_CASE("bootstrap picks with pair entries follow the multinomial law") {
+  // Values 1, 10, 100 (and 1000) make each resample sum name its counts. With n picks from n
+  // values the counts are multinomial(n; 1/n, ..., 1/n) (Efron & Tibshirani 1993, ch. 6).
+  // chi-square 99.9% points: 27.88 on 9 df, 65.25 on 34 df (scipy.stats.chi2.ppf).
+  const std::vector<std::vector<double>> groups{{1, 10, 100}, {1, 10, 100, 1000}};
+  const resampling_pool pool = pool_of(groups);
+  const bootstrap_table table(pool);
+  REQUIRE(table.pairs == std::vector<std::uint32_t>{1, 2});
+  const std::uint64_t count = 200000;
+  const std::vector<double> out = bootstrap_rows(best_kernels(), table, count, 2026, 1);
+  for (std::size_t g = 0; g < 2; ++g) {
+    const std::size_t n = groups[g].size();
+    std::map<long, double> seen;
+    for (std::uint64_t r = 0; r < count; ++r) seen[std::lround(out[(r * 2 + g) * 2])] += 1;
+    // expected: n! / prod(c_i!) / n^n for every count vector c summing to n
+    std::map<long, double> expected;
+    std::vector<int> c(n, 0);
+    std::function<void(std::size_t, int)> walk = [&](std::size_t i, int left) {
+      if (i + 1 == n) {
+        c[i] = left;
+        double p = std::tgamma(static_cast<double>(n) + 1);
+        long key = 0, scale = 1;
+        for (std::size_t k = 0; k < n; ++k, scale *= 10) {
+          p /= std::tgamma(c[k] + 1.0);
+          key += c[k] * scale;
+        }
+        expected[key] = p / std::pow(static_cast<double>(n), static_cast<double>(n));
+        return;
+      }
+      for (int v = 0; v <= left; ++v) {
+        c[i] = v;
+        walk(i + 1, left - v);
+      }
+    };
+    walk(0, static_cast<int>(n));
+    REQUIRE(seen.size() <= expected.size());
+    double chi = 0;
+    for (const auto& [key, p] : expected) {
+      const double e = p * static_cast<double>(count);
+      const double o = seen.count(key) ? seen[key] : 0.0;
+      chi += (o - e) * (o - e) / e;
+    }
+    CHECK(chi < (n == 3 ? 27.88 : 65.25));
   }
 }
 

@@ -1,10 +1,13 @@
 // The resampling kernels, included once per instruction-set level by the files beside this
-// one, each compiled with its own -march and defining CONTRASTA_KERNEL_LEVEL (a namespace
-// name). Everything here lives in that namespace and uses only compiler built-ins and GCC
-// vector extensions, never an inline function shared with other files: a shared inline
+// one, each compiled with its own flags and defining CONTRASTA_KERNEL_LEVEL (a namespace
+// name). Everything here lives in that namespace and uses only compiler built-ins, intrinsics
+// and GCC vector extensions, never an inline function shared with other files: a shared inline
 // function compiled for AVX-512 could otherwise be the copy the linker keeps for everyone.
 //
-// Definitions every level follows exactly (resample_kernels.hpp):
+// Two ways to compute the same numbers: AVX-512 vectors where the level has them, and plain
+// loops over eight scalar lanes elsewhere (which the compiler vectorises as the level allows;
+// 64-byte vector types split into halves ran several times slower on AVX2). Definitions every
+// level follows exactly (resample_kernels.hpp):
 // - words: lane l of eight pcg32 streams gives words l, l+8, l+16, ...;
 // - a draw takes the next word w and returns (w * range) >> 32, unless the low half of the
 //   product is below the threshold, when it takes the next word instead;
@@ -17,7 +20,8 @@
 
 #include "../resample_kernels.hpp"
 
-#if defined(__AVX512F__)
+#if defined(__AVX512F__) && defined(__AVX512DQ__) && defined(__AVX512VL__)
+#define CONTRASTA_KERNEL_AVX512 1
 // GCC 12's AVX-512 intrinsics start from an undefined register that it then reports as used
 // uninitialised (GCC bug 105593, fixed in GCC 13); the pragma covers the header's own lines.
 #pragma GCC diagnostic push
@@ -30,121 +34,67 @@
 #error "define CONTRASTA_KERNEL_LEVEL before including kernels/body.hpp"
 #endif
 
-// The 64-byte vectors below never cross a function boundary that another file sees (every
-// function taking or returning one is internal and inlined), so the ABI note is moot.
-#pragma GCC diagnostic ignored "-Wpsabi"
-
 namespace contrasta::detail::kernel_levels::CONTRASTA_KERNEL_LEVEL {
 namespace {
 
-typedef std::uint64_t u64x8 __attribute__((vector_size(64)));
-typedef std::int64_t i64x8 __attribute__((vector_size(64)));
-typedef std::uint32_t u32x8 __attribute__((vector_size(32)));
-typedef double f64x8 __attribute__((vector_size(64)));
-
-inline u32x8 load_u32(const std::uint32_t* p) {
-  u32x8 v;
-  __builtin_memcpy(&v, p, sizeof v);
-  return v;
-}
-inline void store_u32(std::uint32_t* p, u32x8 v) {
-  __builtin_memcpy(p, &v, sizeof v);
-}
-inline f64x8 load_f64(const double* p) {
-  f64x8 v;
-  __builtin_memcpy(&v, p, sizeof v);
-  return v;
-}
-inline u64x8 widen(u32x8 v) {
-  return __builtin_convertvector(v, u64x8);
-}
-
-// +0.0 in the lanes whose mask is 0 (a bitwise and: -0.0 stays -0.0 only where kept).
-inline f64x8 keep(f64x8 x, i64x8 mask) {
-  return reinterpret_cast<f64x8>(reinterpret_cast<i64x8>(x) & mask);
-}
-
-inline double reduce(f64x8 a) {
-  return ((a[0] + a[4]) + (a[2] + a[6])) + ((a[1] + a[5]) + (a[3] + a[7]));
-}
-
-constexpr i64x8 lane_index = {0, 1, 2, 3, 4, 5, 6, 7};
-
-// Eight doubles at base[index[l]]: eight scalar loads. (The gather instructions were slower on
-// the processors we measured: AVX-512 and AVX2 gathers took 1.5x and 2x as long in the P3
-// bootstrap, bench/RESULTS.md.)
-inline f64x8 gather(const double* base, u32x8 index) {
-  return f64x8{base[index[0]], base[index[1]], base[index[2]], base[index[3]],
-               base[index[4]], base[index[5]], base[index[6]], base[index[7]]};
-}
+constexpr std::uint32_t lanes = word_stream::lanes;
 
 // ---- words ----------------------------------------------------------------------------------
 
 // PCG-XSH-RR on a state (pcg32 outputs the state before it advances): xorshift high bits down,
 // keep 32, rotate right by the top five bits.
-inline u32x8 pcg_output(u64x8 state) {
-  const u64x8 x = (((state >> 18) ^ state) >> 27) & 0xffffffffULL;
-  const u64x8 rotation = state >> 59;
-  return __builtin_convertvector(((x >> rotation) | (x << ((32 - rotation) & 31))) & 0xffffffffULL, u32x8);
+inline std::uint32_t pcg_output(std::uint64_t state) {
+  const auto x = static_cast<std::uint32_t>(((state >> 18) ^ state) >> 27);
+  const auto rotation = static_cast<unsigned>(state >> 59);
+  return (x >> rotation) | (x << ((32 - rotation) & 31));
 }
 
 void refill(word_stream& s) {
   const std::uint32_t left = s.end - s.position;
   __builtin_memmove(s.words, s.words + s.position, sizeof(std::uint32_t) * left);
-  u64x8 state, increment;
-  __builtin_memcpy(&state, s.state, sizeof state);
-  __builtin_memcpy(&increment, s.increment, sizeof increment);
-  std::uint32_t steps = (word_stream::capacity - left) / word_stream::lanes;
+  std::uint32_t steps = (word_stream::capacity - left) / lanes;
   std::uint32_t* out = s.words + left;
   s.position = 0;
-  s.end = left + steps * word_stream::lanes;
+  s.end = left + steps * lanes;
+#if defined(CONTRASTA_KERNEL_AVX512)
   // Four consecutive states of every lane advance together by four steps at a time: the LCG
   // jumped ahead, s' = A^4 s + c (A^3 + A^2 + A + 1) (Brown 1994, "Random number generation with
   // arbitrary strides"), which gives the same states as four single steps but four independent
-  // multiplications instead of one chain of them.
-  constexpr std::uint64_t a = pcg_multiplier, a4 = a * a * a * a;
-  const u64x8 c4 = increment * ((1 + a) * (1 + a * a));
-  u64x8 s0 = state, s1 = s0 * a + increment, s2 = s1 * a + increment, s3 = s2 * a + increment;
-#if defined(__AVX512F__) && defined(__AVX512DQ__)
-  // the same steps in AVX-512 instructions: a dword rotate by the count in each low dword,
-  // vpmullq for the 64-bit products, vpmovqd to keep the low words
+  // multiplications (vpmullq) instead of one chain of them.
+  constexpr std::uint64_t a = pcg_multiplier, a4 = a * a * a * a, c4 = (1 + a) * (1 + a * a);
+  const __m512i increment = _mm512_loadu_si512(s.increment);
+  const __m512i m1 = _mm512_set1_epi64(static_cast<long long>(a)), m4 = _mm512_set1_epi64(static_cast<long long>(a4));
+  const __m512i k4 = _mm512_mullo_epi64(increment, _mm512_set1_epi64(static_cast<long long>(c4)));
+  auto step = [&](__m512i st) { return _mm512_add_epi64(_mm512_mullo_epi64(st, m1), increment); };
+  // the output: a dword rotate by the count in each low dword, then the low dwords kept
   auto output = [](__m512i st) {
     const __m512i x = _mm512_srli_epi64(_mm512_xor_si512(_mm512_srli_epi64(st, 18), st), 27);
     return _mm512_cvtepi64_epi32(_mm512_rorv_epi32(x, _mm512_srli_epi64(st, 59)));
   };
-  __m512i t0 = reinterpret_cast<__m512i>(s0), t1 = reinterpret_cast<__m512i>(s1), t2 = reinterpret_cast<__m512i>(s2),
-          t3 = reinterpret_cast<__m512i>(s3);
-  const __m512i m4 = _mm512_set1_epi64(static_cast<long long>(a4)), k4 = reinterpret_cast<__m512i>(c4);
-  for (; steps >= 4; steps -= 4, out += 4 * word_stream::lanes) {
-    _mm256_storeu_si256(reinterpret_cast<__m256i*>(out), output(t0));
-    _mm256_storeu_si256(reinterpret_cast<__m256i*>(out + 8), output(t1));
-    _mm256_storeu_si256(reinterpret_cast<__m256i*>(out + 16), output(t2));
-    _mm256_storeu_si256(reinterpret_cast<__m256i*>(out + 24), output(t3));
-    t0 = _mm512_add_epi64(_mm512_mullo_epi64(t0, m4), k4);
-    t1 = _mm512_add_epi64(_mm512_mullo_epi64(t1, m4), k4);
-    t2 = _mm512_add_epi64(_mm512_mullo_epi64(t2, m4), k4);
-    t3 = _mm512_add_epi64(_mm512_mullo_epi64(t3, m4), k4);
-  }
-  s0 = reinterpret_cast<u64x8>(t0);
-  s1 = reinterpret_cast<u64x8>(t1);
-  s2 = reinterpret_cast<u64x8>(t2);
-  s3 = reinterpret_cast<u64x8>(t3);
-#else
-  for (; steps >= 4; steps -= 4, out += 4 * word_stream::lanes) {
-    store_u32(out, pcg_output(s0));
-    store_u32(out + 8, pcg_output(s1));
-    store_u32(out + 16, pcg_output(s2));
-    store_u32(out + 24, pcg_output(s3));
-    s0 = s0 * a4 + c4;
-    s1 = s1 * a4 + c4;
-    s2 = s2 * a4 + c4;
-    s3 = s3 * a4 + c4;
-  }
-#endif
+  __m512i t[4];
+  t[0] = _mm512_loadu_si512(s.state);
+  t[1] = step(t[0]);
+  t[2] = step(t[1]);
+  t[3] = step(t[2]);
+  for (; steps >= 4; steps -= 4, out += 4 * lanes)
+    for (int k = 0; k < 4; ++k) {
+      _mm256_storeu_si256(reinterpret_cast<__m256i*>(out + k * lanes), output(t[k]));
+      t[k] = _mm512_add_epi64(_mm512_mullo_epi64(t[k], m4), k4);
+    }
   // the last one to three steps, and the state after them
-  const u64x8 next[4] = {s0, s1, s2, s3};
-  for (std::uint32_t i = 0; i < steps; ++i) store_u32(out + 8 * i, pcg_output(next[i]));
-  __builtin_memcpy(s.state, &next[steps], sizeof state);
+  for (std::uint32_t k = 0; k < steps; ++k) _mm256_storeu_si256(reinterpret_cast<__m256i*>(out + k * lanes), output(t[k]));
+  _mm512_storeu_si512(s.state, t[steps]);
+#else
+  // eight independent lanes: no chain to break
+  std::uint64_t state[lanes];
+  __builtin_memcpy(state, s.state, sizeof state);
+  for (std::uint32_t k = 0; k < steps; ++k, out += lanes)
+    for (std::uint32_t l = 0; l < lanes; ++l) {
+      out[l] = pcg_output(state[l]);
+      state[l] = state[l] * pcg_multiplier + s.increment[l];
+    }
+  __builtin_memcpy(s.state, state, sizeof state);
+#endif
 }
 
 // Makes sure `count` words can be read from s.words + s.position.
@@ -157,45 +107,44 @@ inline std::uint32_t next_word(word_stream& s) {
   return s.words[s.position++];
 }
 
-// The draws of one resample: eight at a time when no word of the resample is rejected (the
+// The draws of one resample: many at a time when no word of the resample is rejected (the
 // usual case: a word is rejected with probability below range / 2^32), else one by one, which
 // gives the same indices whenever the fast way applies.
 inline void draw(word_stream& s, const draw_plan& plan, std::uint32_t* __restrict index) {
-  std::int64_t any = 0;  // negative when a word is rejected
-  if (plan.count > word_stream::capacity) {
-    any = -1;  // more draws than one buffer holds: one by one
-  } else {
+  bool rejected = true;  // more draws than one buffer holds: one by one
+  if (plan.count <= word_stream::capacity) {
     reserve(s, plan.count);
     const std::uint32_t* __restrict w = s.words + s.position;
     const std::uint32_t* __restrict range = plan.range;
     const std::uint32_t* __restrict threshold = plan.threshold;
     const std::uint32_t count = plan.count;
-#if defined(__AVX512F__)
+#if defined(CONTRASTA_KERNEL_AVX512)
     // Sixteen draws at a time: vpmuludq multiplies the even 32-bit lanes, so the odd words are
     // shifted down for a second product, and the high and low halves are put back in order.
     const __m512i low_half = _mm512_set1_epi64(0xffffffffLL), high_half = _mm512_set1_epi64(~0xffffffffLL);
-    __mmask16 rejected = 0;
+    const __m128i scale = _mm_cvtsi32_si128(static_cast<int>(plan.scale));
+    __mmask16 bad = 0;
     for (std::uint32_t i = 0; i < count; i += 16) {
       const __m512i word = _mm512_loadu_si512(w + i), bound = _mm512_loadu_si512(range + i);
       const __m512i even = _mm512_mul_epu32(word, bound);
       const __m512i odd = _mm512_mul_epu32(_mm512_srli_epi64(word, 32), _mm512_srli_epi64(bound, 32));
-      _mm512_storeu_si512(index + i, _mm512_or_si512(_mm512_srli_epi64(even, 32), _mm512_and_si512(odd, high_half)));
+      const __m512i drawn = _mm512_or_si512(_mm512_srli_epi64(even, 32), _mm512_and_si512(odd, high_half));
+      _mm512_storeu_si512(index + i, _mm512_sll_epi32(drawn, scale));
       const __m512i low = _mm512_or_si512(_mm512_and_si512(even, low_half), _mm512_slli_epi64(odd, 32));
-      rejected |= _mm512_cmplt_epu32_mask(low, _mm512_loadu_si512(threshold + i));
+      bad |= _mm512_cmplt_epu32_mask(low, _mm512_loadu_si512(threshold + i));
     }
-    any = rejected ? -1 : 0;
+    rejected = bad != 0;
 #else
-    i64x8 low_minus_threshold = {};
-    for (std::uint32_t i = 0; i < count; i += 8) {
-      const u64x8 product = widen(load_u32(w + i)) * widen(load_u32(range + i));
-      store_u32(index + i, __builtin_convertvector(product >> 32, u32x8));
-      low_minus_threshold |= reinterpret_cast<i64x8>(product & 0xffffffffULL) -
-                             reinterpret_cast<i64x8>(widen(load_u32(threshold + i)));
+    std::uint32_t bad = 0;
+    for (std::uint32_t i = 0; i < count; ++i) {
+      const std::uint64_t product = static_cast<std::uint64_t>(w[i]) * range[i];
+      index[i] = static_cast<std::uint32_t>(product >> 32) << plan.scale;
+      bad |= static_cast<std::uint32_t>(product) < threshold[i];
     }
-    for (int l = 0; l < 8; ++l) any |= low_minus_threshold[l];
+    rejected = bad != 0;
 #endif
   }
-  if (any >= 0) {
+  if (!rejected) {
     s.position += plan.count;
     return;
   }
@@ -203,7 +152,7 @@ inline void draw(word_stream& s, const draw_plan& plan, std::uint32_t* __restric
     for (;;) {
       const std::uint64_t product = static_cast<std::uint64_t>(next_word(s)) * plan.range[i];
       if (static_cast<std::uint32_t>(product) >= plan.threshold[i]) {
-        index[i] = static_cast<std::uint32_t>(product >> 32);
+        index[i] = static_cast<std::uint32_t>(product >> 32) << plan.scale;
         break;
       }
     }
@@ -212,17 +161,32 @@ inline void draw(word_stream& s, const draw_plan& plan, std::uint32_t* __restric
 
 // ---- sums -----------------------------------------------------------------------------------
 
-// Sum and sum of squares of x[0..m), with x[m..m+8) readable.
+#if defined(CONTRASTA_KERNEL_AVX512)
+typedef std::int64_t i64x8 __attribute__((vector_size(64)));
+typedef double f64x8 __attribute__((vector_size(64)));
+
+// +0.0 in the lanes whose mask bit is 0.
+inline f64x8 keep(f64x8 x, __mmask8 mask) {
+  return reinterpret_cast<f64x8>(_mm512_maskz_mov_pd(mask, reinterpret_cast<__m512d>(x)));
+}
+inline double reduce(f64x8 a) {
+  return ((a[0] + a[4]) + (a[2] + a[6])) + ((a[1] + a[5]) + (a[3] + a[7]));
+}
+inline __mmask8 first_lanes(std::uint32_t k) {
+  return static_cast<__mmask8>((1U << k) - 1);
+}
+
+// Sum and sum of squares of x[0..m).
 inline void contiguous_sums(const double* x, std::uint32_t m, double* out) {
   f64x8 sum = {}, square = {};
   std::uint32_t i = 0;
   for (; i + 8 <= m; i += 8) {
-    const f64x8 v = load_f64(x + i);
+    const f64x8 v = reinterpret_cast<f64x8>(_mm512_loadu_pd(x + i));
     sum += v;
     square += v * v;
   }
   if (i < m) {
-    const f64x8 v = keep(load_f64(x + i), lane_index < (i64x8{} + static_cast<std::int64_t>(m - i)));
+    const f64x8 v = reinterpret_cast<f64x8>(_mm512_maskz_loadu_pd(first_lanes(m - i), x + i));
     sum += v;
     square += v * v;
   }
@@ -230,26 +194,37 @@ inline void contiguous_sums(const double* x, std::uint32_t m, double* out) {
   out[1] = reduce(square);
 }
 
-// Sum and sum of squares of values[index[0..m)], with index[m..m+8) readable.
-inline void gathered_sums(const double* values, const std::uint32_t* index, std::uint32_t m, double* out) {
-  f64x8 sum = {}, square = {};
+#else
+inline double reduce(const double* a) {
+  return ((a[0] + a[4]) + (a[2] + a[6])) + ((a[1] + a[5]) + (a[3] + a[7]));
+}
+
+// Sum and sum of squares of x(0..m) in the documented lane order.
+template <class Value>
+inline void lane_sums(Value x, std::uint32_t m, double* out) {
+  double sum[lanes] = {}, square[lanes] = {};
   std::uint32_t i = 0;
-  for (; i + 8 <= m; i += 8) {
-    const f64x8 v = gather(values, load_u32(index + i));
-    sum += v;
-    square += v * v;
-  }
-  if (i < m) {
-    const i64x8 mask = lane_index < (i64x8{} + static_cast<std::int64_t>(m - i));
-    // past m the indices belong to the next group: read values[0] there instead
-    const u32x8 safe = load_u32(index + i) & __builtin_convertvector(mask, u32x8);
-    const f64x8 v = keep(gather(values, safe), mask);
-    sum += v;
-    square += v * v;
-  }
+  for (; i + lanes <= m; i += lanes)
+    for (std::uint32_t l = 0; l < lanes; ++l) {
+      const double v = x(i + l);
+      sum[l] += v;
+      square[l] += v * v;
+    }
+  if (i < m)
+    for (std::uint32_t l = 0; l < lanes; ++l) {
+      const double v = i + l < m ? x(i + l) : 0.0;
+      sum[l] += v;
+      square[l] += v * v;
+    }
   out[0] = reduce(sum);
   out[1] = reduce(square);
 }
+
+inline void contiguous_sums(const double* x, std::uint32_t m, double* out) {
+  lane_sums([x](std::uint32_t i) { return x[i]; }, m, out);
+}
+
+#endif
 
 // ---- resamples ------------------------------------------------------------------------------
 
@@ -279,17 +254,44 @@ void permutation_sums(word_stream& s, const draw_plan& plan, const permutation_s
   }
 }
 
+// The entries of one group's resample summed in lane order: draw i picks the 16-byte entry
+// (a sum and a sum of squares side by side, so one load and one two-wide addition take both)
+// at byte offset offset[i] from the group's pair entries for its first `pairs` draws, from its
+// single entries for the rest; lane i mod 8 adds it.
+typedef double f64x2 __attribute__((vector_size(16)));
+inline void entry_sums(const char* pair_entries, const char* single_entries, const std::uint32_t* offset,
+                       std::uint32_t draws, std::uint32_t pairs, double* out) {
+  f64x2 lane[lanes] = {};
+  auto entry = [](const char* at) {
+    f64x2 e;
+    __builtin_memcpy(&e, at, sizeof e);
+    return e;
+  };
+  // a group has pair draws and at most one single one (odd n), or single draws only
+  const std::uint32_t main = pairs > 0 ? pairs : draws;
+  const char* const table = pairs > 0 ? pair_entries : single_entries;
+  std::uint32_t i = 0;
+  for (; i + lanes <= main; i += lanes)
+    for (std::uint32_t l = 0; l < lanes; ++l) lane[l] += entry(table + offset[i + l]);
+  std::uint32_t l = 0;
+  for (; i + l < main; ++l) lane[l] += entry(table + offset[i + l]);
+  for (; i + l < draws; ++l) lane[l] += entry(single_entries + offset[i + l]);
+  const f64x2 total = ((lane[0] + lane[4]) + (lane[2] + lane[6])) + ((lane[1] + lane[5]) + (lane[3] + lane[7]));
+  out[0] = total[0];
+  out[1] = total[1];
+}
+
 // The draws of a whole resample first, then the sums: loads that read an index stored just
 // before stall on store forwarding, so fusing the two passes was slower (bench/RESULTS.md).
-void bootstrap_sums(word_stream& s, const draw_plan& plan, const bootstrap_shape& shape, const double* values,
+void bootstrap_sums(word_stream& s, const draw_plan& plan, const bootstrap_shape& shape, const double* entries,
                     std::uint64_t count, double* out, std::uint32_t* index) {
   const std::uint32_t groups = shape.groups;
-  const std::uint32_t* const sizes = shape.sizes;
-  const std::uint32_t* const offsets = shape.offsets;
   for (std::uint64_t r = 0; r < count; ++r, out += 2 * groups) {
     draw(s, plan, index);
-    for (std::uint32_t g = 0, first = 0; g < groups; first += sizes[g], ++g)
-      gathered_sums(values + offsets[g], index + first, sizes[g], out + 2 * g);
+    for (std::uint32_t g = 0, first = 0; g < groups; first += shape.draws[g], ++g)
+      entry_sums(reinterpret_cast<const char*>(entries + 2 * static_cast<std::size_t>(shape.pair_base[g])),
+                 reinterpret_cast<const char*>(entries + 2 * static_cast<std::size_t>(shape.single_base[g])),
+                 index + first, shape.draws[g], shape.pairs[g], out + 2 * g);
   }
 }
 
