@@ -146,6 +146,8 @@ method_result bootstrap_contrast(const prepared_data& p, const contrast& c, cons
   // uninitialised, so that the blocks' threads touch their own pages first
   const std::unique_ptr<double[]> kept(new double[m]);
   const std::span<double> deviations(kept.get(), keep_t ? 0 : m), t_star(kept.get(), keep_t ? m : 0);
+  const bool squared = o.side == alternative::two_sided;
+  const double bar = std::max(0.0, std::abs(t_observed) - extreme.tolerance), bar_squared = bar * bar;
   std::vector<std::uint64_t> block_hits((m + resamples_per_block - 1) / resamples_per_block);
   std::vector<double> block_sum(block_hits.size()), block_square(block_hits.size());
   for_each_bootstrap_block(m, o, [&](word_stream& rng, std::uint64_t first, std::uint64_t count, std::uint64_t b) {
@@ -154,12 +156,15 @@ method_result bootstrap_contrast(const prepared_data& p, const contrast& c, cons
     double s = 0, q = 0;
     walker.run(rng, count, [&](const double* ss, const double* qq) {
       const auto [d, v] = evaluate(terms, ss, qq);
-      const double t = studentized_value(d, v);
-      hits += extreme(t);
-      if (keep_t)
+      if (keep_t) {
+        const double t = studentized_value(d, v);
+        hits += extreme(t);
         t_star[r] = t;
-      else
+      } else {
+        // two-sided: |d|/sqrt(V) >= bar <=> d^2 >= bar^2 V when V > 0 (no root or division)
+        hits += squared && v > 0 ? d * d >= bar_squared * v : extreme(studentized_value(d, v));
         deviations[r] = d;
+      }
       s += d;
       q += d * d;
       ++r;

@@ -24,10 +24,14 @@
 #define CONTRASTA_KERNEL_AVX512 1
 // GCC 12's AVX-512 intrinsics start from an undefined register that it then reports as used
 // uninitialised (GCC bug 105593, fixed in GCC 13); the pragma covers the header's own lines.
+#if defined(__GNUC__) && !defined(__clang__)
 #pragma GCC diagnostic push
 #pragma GCC diagnostic ignored "-Wmaybe-uninitialized"
+#endif
 #include <immintrin.h>
+#if defined(__GNUC__) && !defined(__clang__)
 #pragma GCC diagnostic pop
+#endif
 #endif
 
 #ifndef CONTRASTA_KERNEL_LEVEL
@@ -271,11 +275,23 @@ inline void entry_sums(const char* pair_entries, const char* single_entries, con
   const std::uint32_t main = pairs > 0 ? pairs : draws;
   const char* const table = pairs > 0 ? pair_entries : single_entries;
   std::uint32_t i = 0;
-  for (; i + lanes <= main; i += lanes)
-    for (std::uint32_t l = 0; l < lanes; ++l) lane[l] += entry(table + offset[i + l]);
-  std::uint32_t l = 0;
-  for (; i + l < main; ++l) lane[l] += entry(table + offset[i + l]);
-  for (; i + l < draws; ++l) lane[l] += entry(single_entries + offset[i + l]);
+  for (; i + lanes <= main; i += lanes) {
+    const std::uint32_t* o = offset + i;  // constant displacements below, no index arithmetic
+    for (std::uint32_t l = 0; l < lanes; ++l) lane[l] += entry(table + o[l]);
+  }
+  // the last, partial eight: lanes past the end add a zero entry, which leaves a sum that
+  // started at +0.0 unchanged (so the sums are those of the definition), and keeps every lane
+  // index fixed so that the lanes stay in registers
+  if (i < draws) {
+    static constexpr double zero[2] = {0.0, 0.0};
+    for (std::uint32_t l = 0; l < lanes; ++l) {
+      const std::uint32_t k = i + l;
+      const char* at = k < main    ? table + offset[k]
+                       : k < draws ? single_entries + offset[k]
+                                   : reinterpret_cast<const char*>(zero);
+      lane[l] += entry(at);
+    }
+  }
   const f64x2 total = ((lane[0] + lane[4]) + (lane[2] + lane[6])) + ((lane[1] + lane[5]) + (lane[3] + lane[7]));
   out[0] = total[0];
   out[1] = total[1];
