@@ -150,9 +150,11 @@ method_result bootstrap_contrast(const prepared_data& p, const contrast& c, cons
   const double bar = std::max(0.0, std::abs(t_observed) - extreme.tolerance), bar_squared = bar * bar;
   std::vector<std::uint64_t> block_hits((m + resamples_per_block - 1) / resamples_per_block);
   std::vector<double> block_sum(block_hits.size()), block_square(block_hits.size());
+  // deviations below and at or below zero, for the BCa bias (counted here, in parallel)
+  std::vector<std::uint64_t> block_below(block_hits.size()), block_at_or_below(block_hits.size());
   for_each_bootstrap_block(m, o, [&](word_stream& rng, std::uint64_t first, std::uint64_t count, std::uint64_t b) {
     bootstrap_walker walker(table);
-    std::uint64_t hits = 0, r = first;
+    std::uint64_t hits = 0, r = first, below = 0, at_or_below = 0;
     double s = 0, q = 0;
     walker.run(rng, count, [&](const double* ss, const double* qq) {
       const auto [d, v] = evaluate(terms, ss, qq);
@@ -164,6 +166,8 @@ method_result bootstrap_contrast(const prepared_data& p, const contrast& c, cons
         // two-sided: |d|/sqrt(V) >= bar <=> d^2 >= bar^2 V when V > 0 (no root or division)
         hits += squared && v > 0 ? d * d >= bar_squared * v : extreme(studentized_value(d, v));
         deviations[r] = d;
+        below += d < 0;
+        at_or_below += d <= 0;
       }
       s += d;
       q += d * d;
@@ -172,10 +176,14 @@ method_result bootstrap_contrast(const prepared_data& p, const contrast& c, cons
     block_hits[b] = hits;
     block_sum[b] = s;
     block_square[b] = q;
+    block_below[b] = below;
+    block_at_or_below[b] = at_or_below;
   });
-  std::uint64_t hits = 0;
+  std::uint64_t hits = 0, below = 0, at_or_below = 0;
   double sum = 0, square = 0;
   for (std::size_t b = 0; b < block_hits.size(); ++b) {  // block order: thread-count invariant
+    below += block_below[b];
+    at_or_below += block_at_or_below[b];
     hits += block_hits[b];
     sum += block_sum[b];
     square += block_square[b];
@@ -191,9 +199,9 @@ method_result bootstrap_contrast(const prepared_data& p, const contrast& c, cons
   std::string interval_words;
   double acceleration = not_available, bias = not_available;
   // the quantile levels of the two ends (NaN: not wanted), both selected in one pass
-  auto quantiles = [](std::span<double> x, double level_low, double level_high) {
+  auto quantiles = [&o](std::span<double> x, double level_low, double level_high) {
     const double wanted[2] = {level_low, level_high};
-    const std::vector<double> q = quantiles_linear(x, wanted);
+    const std::vector<double> q = quantiles_linear(x, wanted, thread_count(o));
     return std::array<double, 2>{q[0], q[1]};
   };
   const double unwanted = std::numeric_limits<double>::quiet_NaN();
@@ -207,7 +215,7 @@ method_result bootstrap_contrast(const prepared_data& p, const contrast& c, cons
     }
     case bootstrap_interval::bca: {
       interval_words = "BCa (bias-corrected and accelerated)";
-      bias = bca_bias(deviations);
+      bias = bca_bias(below, at_or_below, m);
       acceleration = bca_acceleration(p, c);
       auto adjusted = [&](double z_alpha) { return bca_level(bias, acceleration, z_alpha); };
       const auto q = quantiles(deviations, want_low ? adjusted(normal_quantile(tail)) : unwanted,

@@ -2,6 +2,10 @@
 
 #include <algorithm>
 #include <cmath>
+#include <memory>
+
+#include <tbb/parallel_for.h>
+#include <tbb/task_arena.h>
 
 #include "contrasta/result.hpp"
 #include "distributions.hpp"
@@ -21,7 +25,57 @@ double quantile_linear(std::span<double> x, double q) {
   return t == 0 ? a : a + (b - a) * t;
 }
 
-std::vector<double> quantiles_linear(std::span<double> x, std::span<const double> levels) {
+namespace {
+
+// What one part of the data holds for two brackets [low, high]: the count below each and the
+// values inside each (at most `capacity` of them: a part that holds more reports `full`).
+struct bracket_scan {
+  std::size_t below[2] = {0, 0};
+  std::vector<double> kept[2];
+  bool full[2] = {false, false};
+  bool unordered = false;  // a NaN was seen
+};
+
+bracket_scan scan_brackets(std::span<const double> x, double low0, double high0, double low1, double high1) {
+  bracket_scan out;
+  const std::size_t n = x.size();
+  // about 50/1024 of the values fall in a bracket; four times that, and then some, is plenty
+  const std::size_t capacity = n / 5 + 4096;
+  constexpr std::size_t chunk = 1024;
+  // not zero-filled: only the kept part is read. Each value is written to both buffers and kept
+  // by moving the end past it or not, with no branch on the data.
+  const std::unique_ptr<double[]> keep0(new double[capacity + chunk]), keep1(new double[capacity + chunk]);
+  std::size_t below0 = 0, below1 = 0, end0 = 0, end1 = 0;
+  bool unordered = false;
+  std::size_t start = 0;
+  for (; start < n && end0 <= capacity && end1 <= capacity; start += chunk) {
+    const std::size_t stop = std::min(n, start + chunk);
+    for (std::size_t i = start; i < stop; ++i) {
+      const double v = x[i];
+      unordered |= v != v;
+      below0 += v < low0;
+      below1 += v < low1;
+      keep0[end0] = v;
+      end0 += (v >= low0) & (v <= high0);
+      keep1[end1] = v;
+      end1 += (v >= low1) & (v <= high1);
+    }
+  }
+  out.below[0] = below0;
+  out.below[1] = below1;
+  // stopped early: both counts are incomplete, so both brackets count as missed
+  const bool stopped = start < n;
+  out.full[0] = stopped || end0 > capacity;
+  out.full[1] = stopped || end1 > capacity;
+  out.kept[0].assign(keep0.get(), keep0.get() + std::min(end0, capacity));
+  out.kept[1].assign(keep1.get(), keep1.get() + std::min(end1, capacity));
+  out.unordered = unordered;
+  return out;
+}
+
+}  // namespace
+
+std::vector<double> quantiles_linear(std::span<double> x, std::span<const double> levels, int threads) {
   const std::size_t n = x.size();
   std::vector<double> out(levels.size(), not_available);
   // Below this size, or for a single level, one selection per level costs little.
@@ -60,25 +114,42 @@ std::vector<double> quantiles_linear(std::span<double> x, std::span<const double
     const std::size_t at = b.rank * sample_size / n;
     if (at >= half_width) b.low = sample[at - half_width];
     if (at + half_width + 1 < sample_size) b.high = sample[at + half_width + 1];
-    b.inside.reserve(2 * n * (2 * half_width + 2) / sample_size);
   }
   // One pass: how many values lie below each bracket, and the ones inside it; two brackets at a
-  // time with their counts in registers.
+  // time, the data cut into `threads` parts scanned side by side and merged in part order.
   bool unordered = false;
+  const std::size_t parts = std::clamp<std::size_t>(threads, 1, 8);
   for (std::size_t k = 0; k < used.size(); k += 2) {
     bracket& first = *used[k];
     bracket& second = k + 1 < used.size() ? *used[k + 1] : *used[k];
-    const double low0 = first.low, high0 = first.high, low1 = second.low, high1 = second.high;
-    std::size_t below0 = 0, below1 = 0;
-    for (double v : x) {
-      unordered |= v != v;
-      below0 += v < low0;
-      below1 += v < low1;
-      if (v >= low0 && v <= high0) first.inside.push_back(v);
-      if (v >= low1 && v <= high1) second.inside.push_back(v);
+    std::vector<bracket_scan> scans(parts);
+    auto scan_part = [&](std::size_t part) {
+      const std::size_t begin = n * part / parts, end = n * (part + 1) / parts;
+      scans[part] = scan_brackets(x.subspan(begin, end - begin), first.low, first.high, second.low, second.high);
+    };
+    if (parts == 1) {
+      scan_part(0);
+    } else {
+      tbb::task_arena arena(static_cast<int>(parts));
+      arena.execute([&] { tbb::parallel_for(std::size_t{0}, parts, scan_part); });
     }
-    first.below = below0;
-    if (&second != &first) second.below = below1;
+    first.below = second.below = 0;
+    first.inside.clear();
+    second.inside.clear();
+    bool full0 = false, full1 = false;
+    for (const bracket_scan& part : scans) {
+      unordered |= part.unordered;
+      full0 |= part.full[0];
+      full1 |= part.full[1];
+      first.below += part.below[0];
+      first.inside.insert(first.inside.end(), part.kept[0].begin(), part.kept[0].end());
+      if (&second != &first) {
+        second.below += part.below[1];
+        second.inside.insert(second.inside.end(), part.kept[1].begin(), part.kept[1].end());
+      }
+    }
+    if (full0) first.below = n;  // a full buffer: the bracket counts as missed
+    if (full1 && &second != &first) second.below = n;
   }
   for (std::size_t i = 0; i < levels.size(); ++i) {
     bracket& b = brackets[i];
@@ -127,8 +198,12 @@ double bca_bias(std::span<const double> deviations) {
     below += d < 0;
     at_or_below += d <= 0;
   }
+  return bca_bias(below, at_or_below, deviations.size());
+}
+
+double bca_bias(std::uint64_t below, std::uint64_t at_or_below, std::uint64_t resamples) {
   const double share =
-      (static_cast<double>(below) + static_cast<double>(at_or_below)) / (2.0 * static_cast<double>(deviations.size()));
+      (static_cast<double>(below) + static_cast<double>(at_or_below)) / (2.0 * static_cast<double>(resamples));
   if (share <= 0) return -HUGE_VAL;
   if (share >= 1) return HUGE_VAL;
   return boost::math::quantile(normal(), share);

@@ -16,8 +16,8 @@ double quantile_linear(std::span<double> x, double q);
 // quantile_linear at several levels with one pass over x for all of them (a sorted sample
 // brackets each order statistic needed, and only the values inside a bracket are selected);
 // the same values as quantile_linear, level by level. NaN levels give not_available. May
-// reorder x.
-std::vector<double> quantiles_linear(std::span<double> x, std::span<const double> levels);
+// reorder x. The pass runs on up to `threads` threads; the values do not depend on it.
+std::vector<double> quantiles_linear(std::span<double> x, std::span<const double> levels, int threads = 1);
 
 // The BCa acceleration of a contrast of means from the jackknife over all observations
 // (Efron & Tibshirani 1993 eq. 14.15 in the multi-sample form of scipy.stats.bootstrap): leaving
@@ -30,6 +30,8 @@ double bca_acceleration(const prepared_data& p, const contrast& c);
 // convention of scipy.stats.bootstrap; Efron & Tibshirani 1993 eq. 14.14), from the deviations
 // psi* - psi. +-infinity when every deviation lies on one side.
 double bca_bias(std::span<const double> deviations);
+// The same from the counts of deviations below zero and at or below zero among `resamples`.
+double bca_bias(std::uint64_t below, std::uint64_t at_or_below, std::uint64_t resamples);
 inline double bca_bias(const std::vector<double>& deviations) {
   return bca_bias(std::span<const double>(deviations));
 }
