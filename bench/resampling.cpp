@@ -22,6 +22,7 @@
 
 #include "contrasta/resample.hpp"
 #include "random.hpp"
+#include "resample_kernels.hpp"
 
 using namespace contrasta;
 
@@ -129,6 +130,7 @@ int main(int argc, char** argv) {
     }
   }
   normal_source normal{detail::block_stream(20261201, 0)};
+  std::printf("resampling kernels: %s\n", detail::best_kernels().level);
 
   // P1 and P4: studentized permutation test of one contrast, 4 groups of 50, unequal SDs.
   std::vector<std::vector<double>> p1 = p1_file.empty() ? std::vector<std::vector<double>>{} : read_groups(p1_file);

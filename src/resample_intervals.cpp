@@ -8,6 +8,7 @@
 #include <tbb/task_arena.h>
 
 #include "contrasta/result.hpp"
+#include "resample_kernels.hpp"
 #include "distributions.hpp"
 
 namespace contrasta::detail {
@@ -38,38 +39,21 @@ struct bracket_scan {
 
 bracket_scan scan_brackets(std::span<const double> x, double low0, double high0, double low1, double high1) {
   bracket_scan out;
-  const std::size_t n = x.size();
-  // about 50/1024 of the values fall in a bracket; four times that, and then some, is plenty
-  const std::size_t capacity = n / 5 + 4096;
-  constexpr std::size_t chunk = 1024;
-  // not zero-filled: only the kept part is read. Each value is written to both buffers and kept
-  // by moving the end past it or not, with no branch on the data.
-  const std::unique_ptr<double[]> keep0(new double[capacity + chunk]), keep1(new double[capacity + chunk]);
-  std::size_t below0 = 0, below1 = 0, end0 = 0, end1 = 0;
-  bool unordered = false;
-  std::size_t start = 0;
-  for (; start < n && end0 <= capacity && end1 <= capacity; start += chunk) {
-    const std::size_t stop = std::min(n, start + chunk);
-    for (std::size_t i = start; i < stop; ++i) {
-      const double v = x[i];
-      unordered |= v != v;
-      below0 += v < low0;
-      below1 += v < low1;
-      keep0[end0] = v;
-      end0 += (v >= low0) & (v <= high0);
-      keep1[end1] = v;
-      end1 += (v >= low1) & (v <= high1);
-    }
+  // about 50/1024 of the values fall in a bracket; twice that is plenty, and keeps the buffers
+  // of 1e5 resamples below the size at which each allocation maps fresh pages
+  const std::size_t capacity = x.size() / 10 + 1024;
+  // not zero-filled: only the kept part is read
+  const std::unique_ptr<double[]> keep0(new double[capacity + 1032]), keep1(new double[capacity + 1032]);
+  const double bounds[4] = {low0, high0, low1, high1};
+  bracket_pass pass;
+  best_kernels().bracket_scan(x.data(), x.size(), bounds, keep0.get(), keep1.get(), capacity, pass);
+  for (int k = 0; k < 2; ++k) {
+    out.below[k] = pass.below[k];
+    out.full[k] = pass.stopped;
   }
-  out.below[0] = below0;
-  out.below[1] = below1;
-  // stopped early: both counts are incomplete, so both brackets count as missed
-  const bool stopped = start < n;
-  out.full[0] = stopped || end0 > capacity;
-  out.full[1] = stopped || end1 > capacity;
-  out.kept[0].assign(keep0.get(), keep0.get() + std::min(end0, capacity));
-  out.kept[1].assign(keep1.get(), keep1.get() + std::min(end1, capacity));
-  out.unordered = unordered;
+  out.kept[0].assign(keep0.get(), keep0.get() + std::min<std::size_t>(pass.kept[0], capacity));
+  out.kept[1].assign(keep1.get(), keep1.get() + std::min<std::size_t>(pass.kept[1], capacity));
+  out.unordered = pass.unordered;
   return out;
 }
 

@@ -66,6 +66,17 @@ struct bootstrap_shape {
   const std::uint32_t* single_base = nullptr;
 };
 
+// What one pass over values x finds for two brackets [low_k, high_k] (quantiles_linear in
+// resample_intervals.cpp): how many values lie below each, and the values inside each, in the
+// order of x. The pass looks at its values 1024 at a time and stops before a stretch if a
+// buffer already holds more than `capacity` values (the caller then selects in full).
+struct bracket_pass {
+  std::uint64_t below[2] = {0, 0};
+  std::uint64_t kept[2] = {0, 0};
+  bool unordered = false;  // a NaN was seen
+  bool stopped = false;    // a buffer filled up: the counts are incomplete
+};
+
 // One instruction-set level's kernels. Output rows: per resample, (sum, sum of squares) of each
 // drawn group in order: 2 * drawn doubles for a permutation, 2 * groups for a bootstrap.
 struct resample_kernels {
@@ -79,6 +90,10 @@ struct resample_kernels {
   // scratch holds plan.count + 16 indices.
   void (*permutation_sums)(word_stream& stream, const draw_plan& plan, const permutation_shape& shape, double* data,
                            std::uint64_t count, double* out, std::uint32_t* scratch);
+  // The pass of bracket_pass over x[0..n); bounds = {low_0, high_0, low_1, high_1}; keep0 and
+  // keep1 hold capacity + 1032 values.
+  void (*bracket_scan)(const double* x, std::size_t n, const double* bounds, double* keep0, double* keep1,
+                       std::size_t capacity, bracket_pass& out);
   // `count` resamples with replacement within each group; entries as in bootstrap_shape, the
   // plan's scale 4.
   void (*bootstrap_sums)(word_stream& stream, const draw_plan& plan, const bootstrap_shape& shape,

@@ -289,6 +289,49 @@ TEST_CASE("bootstrap picks with pair entries follow the multinomial law") {
   }
 }
 
+TEST_CASE("bracket pass: counts below and values inside two brackets, in order, at every level") {
+  // reference: the definition in resample_kernels.hpp, one value at a time
+  std::vector<double> x = noisy_values(10007, 21);  // not a multiple of 8 or of 1024
+  for (std::size_t i = 0; i < x.size(); i += 97) x[i] = i % 2 ? HUGE_VAL : -HUGE_VAL;
+  const std::vector<std::array<double, 4>> cases{
+      {-1.0, -0.5, 0.25, 0.5}, {-HUGE_VAL, -3.0, 3.0, HUGE_VAL}, {0.0, 0.0, -10.0, 10.0}};
+  for (const resample_kernels* k : levels()) {
+    CAPTURE(std::string(k->level));
+    for (const auto& bounds : cases) {
+      for (const std::size_t capacity : {std::size_t{100000}, std::size_t{500}}) {
+        std::vector<double> keep0(capacity + 1032), keep1(capacity + 1032);
+        bracket_pass pass;
+        k->bracket_scan(x.data(), x.size(), bounds.data(), keep0.data(), keep1.data(), capacity, pass);
+        CHECK(!pass.unordered);
+        std::vector<double> in0, in1;
+        std::uint64_t below0 = 0, below1 = 0;
+        for (double v : x) {
+          below0 += v < bounds[0];
+          below1 += v < bounds[2];
+          if (v >= bounds[0] && v <= bounds[1]) in0.push_back(v);
+          if (v >= bounds[2] && v <= bounds[3]) in1.push_back(v);
+        }
+        const bool overflows = in0.size() > capacity || in1.size() > capacity;
+        CHECK(pass.stopped == overflows);
+        if (overflows) continue;  // the counts of a stopped pass are not used
+        CHECK(pass.below[0] == below0);
+        CHECK(pass.below[1] == below1);
+        REQUIRE(pass.kept[0] == in0.size());
+        REQUIRE(pass.kept[1] == in1.size());
+        for (std::size_t i = 0; i < in0.size(); ++i) REQUIRE(same_bits(keep0[i], in0[i]));
+        for (std::size_t i = 0; i < in1.size(); ++i) REQUIRE(same_bits(keep1[i], in1[i]));
+      }
+    }
+    std::vector<double> with_nan(x);
+    with_nan[5000] = std::nan("");
+    std::vector<double> keep0(20000), keep1(20000);
+    bracket_pass pass;
+    const double bounds[4] = {-1, 1, -2, 2};
+    k->bracket_scan(with_nan.data(), with_nan.size(), bounds, keep0.data(), keep1.data(), 10000, pass);
+    CHECK(pass.unordered);
+  }
+}
+
 TEST_CASE("the portable level is always there, and the best level is one of those available") {
   const auto all = levels();
   REQUIRE(!all.empty());

@@ -311,12 +311,73 @@ void bootstrap_sums(word_stream& s, const draw_plan& plan, const bootstrap_shape
   }
 }
 
+// ---- quantile brackets ----------------------------------------------------------------------
+
+void bracket_scan(const double* x, std::size_t n, const double* bounds, double* keep0, double* keep1,
+                  std::size_t capacity, bracket_pass& out) {
+  constexpr std::size_t stretch = 1024;
+  std::uint64_t below0 = 0, below1 = 0, end0 = 0, end1 = 0;
+  bool unordered = false, stopped = false;
+  for (std::size_t start = 0; start < n; start += stretch) {
+    if (end0 > capacity || end1 > capacity) {
+      stopped = true;
+      break;
+    }
+    const std::size_t stop = start + stretch < n ? start + stretch : n;
+#if defined(CONTRASTA_KERNEL_AVX512)
+    // eight values at a time: compare masks, their population counts, and a compress that packs
+    // the kept values to the front of a vector stored at the buffer's end
+    const __m512d low0 = _mm512_set1_pd(bounds[0]), high0 = _mm512_set1_pd(bounds[1]);
+    const __m512d low1 = _mm512_set1_pd(bounds[2]), high1 = _mm512_set1_pd(bounds[3]);
+    __mmask8 nan = 0;
+    for (std::size_t i = start; i < stop; i += 8) {
+      const __mmask8 lanes_in = stop - i >= 8 ? __mmask8(0xff) : __mmask8((1U << (stop - i)) - 1);
+      const __m512d v = _mm512_maskz_loadu_pd(lanes_in, x + i);
+      nan |= _mm512_mask_cmp_pd_mask(lanes_in, v, v, _CMP_UNORD_Q);
+      const __mmask8 under0 = _mm512_mask_cmp_pd_mask(lanes_in, v, low0, _CMP_LT_OQ);
+      const __mmask8 under1 = _mm512_mask_cmp_pd_mask(lanes_in, v, low1, _CMP_LT_OQ);
+      const __mmask8 in0 =
+          _mm512_mask_cmp_pd_mask(_mm512_mask_cmp_pd_mask(lanes_in, v, low0, _CMP_GE_OQ), v, high0, _CMP_LE_OQ);
+      const __mmask8 in1 =
+          _mm512_mask_cmp_pd_mask(_mm512_mask_cmp_pd_mask(lanes_in, v, low1, _CMP_GE_OQ), v, high1, _CMP_LE_OQ);
+      below0 += static_cast<unsigned>(__builtin_popcount(under0));
+      below1 += static_cast<unsigned>(__builtin_popcount(under1));
+      _mm512_storeu_pd(keep0 + end0, _mm512_maskz_compress_pd(in0, v));
+      end0 += static_cast<unsigned>(__builtin_popcount(in0));
+      _mm512_storeu_pd(keep1 + end1, _mm512_maskz_compress_pd(in1, v));
+      end1 += static_cast<unsigned>(__builtin_popcount(in1));
+    }
+    unordered |= nan != 0;
+#else
+    // each value written to both buffers and kept by moving the end past it or not: no branch
+    // on the data
+    const double low0 = bounds[0], high0 = bounds[1], low1 = bounds[2], high1 = bounds[3];
+    for (std::size_t i = start; i < stop; ++i) {
+      const double v = x[i];
+      unordered |= v != v;
+      below0 += v < low0;
+      below1 += v < low1;
+      keep0[end0] = v;
+      end0 += (v >= low0) & (v <= high0);
+      keep1[end1] = v;
+      end1 += (v >= low1) & (v <= high1);
+    }
+#endif
+  }
+  out.below[0] = below0;
+  out.below[1] = below1;
+  out.kept[0] = end0;
+  out.kept[1] = end1;
+  out.unordered = unordered;
+  out.stopped = stopped || end0 > capacity || end1 > capacity;
+}
+
 }  // namespace
 
 extern const resample_kernels kernels{
 #define CONTRASTA_STRINGIFY2(x) #x
 #define CONTRASTA_STRINGIFY(x) CONTRASTA_STRINGIFY2(x)
-    CONTRASTA_STRINGIFY(CONTRASTA_KERNEL_LEVEL), refill, draws, permutation_sums, bootstrap_sums};
+    CONTRASTA_STRINGIFY(CONTRASTA_KERNEL_LEVEL), refill, draws, permutation_sums, bracket_scan, bootstrap_sums};
 #undef CONTRASTA_STRINGIFY
 #undef CONTRASTA_STRINGIFY2
 
