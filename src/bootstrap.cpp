@@ -44,13 +44,13 @@ resampling_pool make_bootstrap_pool(const prepared_data& p, std::span<const std:
   return pool;
 }
 
-// Draws resamples with replacement within each group and hands over the per-group sums of each
-// resample. The draws and sums run in the vector kernels (resample_kernels.hpp), a chunk of
+// Draws resamples with replacement within each group and hands over each resample's row of
+// per-group (sum, sum of squares) pairs. The draws and sums run in the vector kernels (resample_kernels.hpp), a chunk of
 // resamples at a time.
 class bootstrap_walker {
  public:
   explicit bootstrap_walker(const bootstrap_table& table)
-      : table_(table), draws_(table.ranges, 4), shape_(table.shape()), sum_(table.draws.size()), square_(table.draws.size()) {
+      : table_(table), draws_(table.ranges, 4), shape_(table.shape()) {
     scratch_.resize(draws_.count + 16);
     out_.resize(chunk * 2 * table.draws.size());
   }
@@ -63,14 +63,7 @@ class bootstrap_walker {
     for (std::uint64_t done = 0; done < count; done += chunk) {
       const std::uint64_t m = std::min<std::uint64_t>(chunk, count - done);
       kernels.bootstrap_sums(words, plan, shape_, table_.entries.data(), m, out_.data(), scratch_.data());
-      const double* row = out_.data();
-      for (std::uint64_t r = 0; r < m; ++r) {
-        for (std::size_t g = 0; g < groups; ++g, row += 2) {
-          sum_[g] = row[0];
-          square_[g] = row[1];
-        }
-        consume(sum_.data(), square_.data());
-      }
+      for (std::uint64_t r = 0; r < m; ++r) consume(out_.data() + 2 * groups * r);
     }
   }
 
@@ -81,7 +74,7 @@ class bootstrap_walker {
   draw_ranges draws_;
   bootstrap_shape shape_;
   std::vector<std::uint32_t> scratch_;
-  std::vector<double> out_, sum_, square_;
+  std::vector<double> out_;
 };
 
 template <class Body>
@@ -156,8 +149,8 @@ method_result bootstrap_contrast(const prepared_data& p, const contrast& c, cons
     bootstrap_walker walker(table);
     std::uint64_t hits = 0, r = first, below = 0, at_or_below = 0;
     double s = 0, q = 0;
-    walker.run(rng, count, [&](const double* ss, const double* qq) {
-      const auto [d, v] = evaluate(terms, ss, qq);
+    walker.run(rng, count, [&](const double* row) {
+      const auto [d, v] = evaluate_row(terms, row);
       if (keep_t) {
         const double t = studentized_value(d, v);
         hits += extreme(t);
@@ -293,9 +286,9 @@ joint_resampling joint_bootstrap_statistics(const prepared_data& p, std::span<co
                            [&](word_stream& rng, std::uint64_t first, std::uint64_t count, std::uint64_t) {
                              bootstrap_walker walker(table);
                              double* row = out.statistics.data() + first * m;
-                             walker.run(rng, count, [&](const double* ss, const double* qq) {
+                             walker.run(rng, count, [&](const double* resample) {
                                for (std::size_t j = 0; j < m; ++j) {
-                                 const auto [d, v] = evaluate(terms[j], ss, qq);
+                                 const auto [d, v] = evaluate_row(terms[j], resample);
                                  row[j] = studentized_value(d, v);
                                }
                                row += m;

@@ -69,6 +69,17 @@ inline difference_and_variance evaluate(const contrast_terms& t, const double* s
   return {d, v};
 }
 
+// The same from a row of (S_g, Q_g) pairs side by side, as the bootstrap kernel writes them.
+inline difference_and_variance evaluate_row(const contrast_terms& t, const double* row) {
+  double d = 0, v = 0;
+  for (std::size_t i = 0; i < t.groups.size(); ++i) {
+    const double s = row[2 * t.groups[i]], q = row[2 * t.groups[i] + 1];
+    d += t.mean_weight[i] * s;
+    v += t.variance_weight[i] * std::max(0.0, q - s * s * t.inverse_n[i]);
+  }
+  return {d, v};
+}
+
 // The studentized statistic d / sqrt(V), with the conventions of resample.hpp for V = 0.
 inline double studentized_value(double d, double v) {
   if (v > 0) return d / std::sqrt(v);
