@@ -85,8 +85,13 @@ TEST_CASE("Shapiro-Wilk agrees with scipy.stats.shapiro within its single precis
     const double ew = fixture::relative_error(r.w, c["w"].num());
     const double want_p = c["p_value"].num();
     CHECK(ew <= 2e-5);
-    if (x.size() <= 500) CHECK(std::abs(r.p_value - want_p) <= 2e-3 * want_p + 1e-6);
-    CHECK(std::abs(shapiro_wilk_p_value(c["w"].num(), x.size()) - want_p) <= 2e-3 * want_p + 1e-6);
+    // For n = 3, p = (6/pi)(asin(sqrt W) - pi/3) has slope 3/(pi sqrt(W(1-W))) at W, which
+    // becomes steep as W nears 3/4; scipy's single-precision W (off by a few float steps, ~1e-6)
+    // then moves its p by more than 1e-6 (W = 0.7500247: scipy p 5.3275e-5, the formula on that
+    // very W 5.4420e-5), so the allowance grows with that slope.
+    const double w_slack = x.size() == 3 ? 3 / (3.14159265358979 * std::sqrt(r.w * (1 - r.w))) * 1e-6 : 0.0;
+    if (x.size() <= 500) CHECK(std::abs(r.p_value - want_p) <= 2e-3 * want_p + 1e-6 + w_slack);
+    CHECK(std::abs(shapiro_wilk_p_value(c["w"].num(), x.size()) - want_p) <= 2e-3 * want_p + 1e-6 + w_slack);
     worst_w = std::max(worst_w, ew);
     if (want_p > 1e-3 && x.size() <= 500) worst_p = std::max(worst_p, std::abs(r.p_value - want_p) / want_p);
   }
