@@ -58,10 +58,6 @@ variance_test anova_f_of(const std::vector<std::vector<double>>& samples) {
   return out;
 }
 
-}  // namespace
-
-namespace {
-
 // Levene-type test about given centres, one per group.
 variance_test levene_about(const sample_list& groups, const std::vector<double>& centres, levene_centre centre) {
   std::vector<std::vector<double>> deviations;
