@@ -291,17 +291,6 @@ struct mapped_block {
   T& operator[](std::size_t i) const { return data[i]; }
 };
 
-// Large buffers about to be filled: ask for 2 MiB pages, where the system grants them on
-// request, so that filling 80 MB takes 40 page faults instead of 20,000. Only the aligned
-// interior is advised; the advice is a hint and its failure changes nothing.
-void advise_huge_pages(void* data, std::size_t bytes) {
-  constexpr std::uintptr_t huge = std::uintptr_t{1} << 21;
-  if (bytes < 2 * huge) return;
-  const auto first = (reinterpret_cast<std::uintptr_t>(data) + huge - 1) & ~(huge - 1);
-  const auto last = (reinterpret_cast<std::uintptr_t>(data) + bytes) & ~(huge - 1);
-  if (last > first) (void)::madvise(reinterpret_cast<void*>(first), last - first, MADV_HUGEPAGE);
-}
-
 struct level_store {
   static constexpr std::size_t first_block = 256, largest_block = 1 << 16;
   std::vector<std::unique_ptr<mapped_block<double>>> value_blocks;
@@ -597,8 +586,6 @@ class long_reader {
       // near one copy of the data.
       d.values.reserve(total);
       d.rows.reserve(total);
-      advise_huge_pages(d.values.data(), total * sizeof(double));
-      advise_huge_pages(d.rows.data(), total * sizeof(std::uint64_t));
       d.offsets.push_back(0);
       std::size_t at = 0;
       for (auto& s : r.stores) {
