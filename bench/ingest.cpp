@@ -15,6 +15,8 @@
 #include <vector>
 
 #include "contrasta/comparison.hpp"
+#include "contrasta/diagnostics.hpp"
+#include "contrasta/overall.hpp"
 #include "contrasta/family.hpp"
 #include "contrasta/prepared.hpp"
 #include "contrasta/read.hpp"
@@ -87,5 +89,19 @@ int main(int argc, char** argv) {
   double pairs_time = seconds_since(t);
   std::printf("all pairs of 50 groups from 1e6 observations (summaries + %zu contrasts x 2 methods): %.3f s\n",
               result.contrasts.size(), pairs_time);
+
+  // Where the time goes: each stage on its own, one after the other (in run_comparison the
+  // overall tests and the advice run side by side).
+  auto stage = [](auto&& work) {
+    auto t0 = clock_type::now();
+    work();
+    return seconds_since(t0);
+  };
+  contrasta::prepared_data p;
+  double t_prepare = stage([&] { p = contrasta::prepare(result.prepared.data); });
+  double t_overall = stage([&] { (void)contrasta::overall_tests(p); });
+  double t_diagnose = stage([&] { (void)contrasta::diagnose(p); });
+  std::printf("  breakdown, stage by stage: prepare %.3f s, overall tests %.3f s, diagnostics %.3f s\n", t_prepare,
+              t_overall, t_diagnose);
   return 0;
 }

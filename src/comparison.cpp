@@ -1,12 +1,11 @@
 #include "contrasta/comparison.hpp"
 
-#include <tbb/parallel_invoke.h>
-
 #include <algorithm>
 
 #include "contrasta/error.hpp"
 #include "contrasta/family.hpp"
 #include "contrasta/methods.hpp"
+#include "side_by_side.hpp"
 
 namespace contrasta {
 
@@ -20,7 +19,8 @@ comparison run_comparison(prepared_data p, const comparison_request& request) {
   out.options = request.options;
   // The overall tests and the diagnostics behind the advice are independent reads of the same
   // prepared data; on large files each costs a few sorts, so they run side by side.
-  tbb::parallel_invoke([&] { out.overall = overall_tests(p); }, [&] { out.advice = recommend(p, request.options); });
+  detail::side_by_side(
+      p.data.size(), [&] { out.overall = overall_tests(p); }, [&] { out.advice = recommend(p, request.options); });
 
   std::vector<contrast> contrasts = request.contrasts.empty() ? all_pairs(p.data.levels) : request.contrasts;
   for (const auto& c : contrasts) check_contrast(c, request.options.allow_linear);

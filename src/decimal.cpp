@@ -5,17 +5,14 @@
 #include <cstdlib>
 #include <string>
 
+#include "decimal_plain.hpp"
+
 namespace contrasta {
 namespace {
 
 constexpr int max_exact_digits = 36;  // 10^36 < 2^127
 
 bool is_digit(char c) { return c >= '0' && c <= '9'; }
-
-// Powers of ten that are exact in double (up to 1e22).
-constexpr double exact_powers[] = {1e0,  1e1,  1e2,  1e3,  1e4,  1e5,  1e6,  1e7,
-                                   1e8,  1e9,  1e10, 1e11, 1e12, 1e13, 1e14, 1e15,
-                                   1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22};
 
 struct power_table {
   int128 values[39];
@@ -40,53 +37,23 @@ std::string int128_text(int128 v) {
 }
 
 // mantissa * 10^exponent rounded once to the nearest double.
-double to_double(int128 mantissa, int exponent) {
-  const int128 limit = static_cast<int128>(1) << 53;
-  if (mantissa > -limit && mantissa < limit && exponent >= -22 && exponent <= 22) {
-    // Both operands are exact doubles, so one multiplication or division rounds once.
-    // int64 -> double is one instruction; int128 -> double is a library call.
-    double m = static_cast<double>(static_cast<std::int64_t>(mantissa));
-    return exponent >= 0 ? m * exact_powers[exponent] : m / exact_powers[-exponent];
-  }
+[[gnu::noinline]] double to_double_by_text(int128 mantissa, int exponent) {
   std::string text = int128_text(mantissa) + "e" + std::to_string(exponent);
   return std::strtod(text.c_str(), nullptr);  // correctly rounded by the C library
 }
 
-}  // namespace
-
-namespace {
-// The common case in data files: [-]digits[.digits] with at most 18 digits and no blanks.
-bool parse_plain(std::string_view text, char point, decimal& d) {
-  std::size_t i = 0, n = text.size();
-  if (n == 0 || n > 20) return false;
-  bool negative = text[0] == '-';
-  if (negative || text[0] == '+') ++i;
-  std::uint64_t m = 0;
-  int digits = 0, fraction = -1;
-  for (; i < n; ++i) {
-    char c = text[i];
-    if (c >= '0' && c <= '9') {
-      m = m * 10 + static_cast<std::uint64_t>(c - '0');
-      ++digits;
-      if (fraction >= 0) ++fraction;
-    } else if (c == point && fraction < 0) {
-      fraction = 0;
-    } else {
-      return false;
-    }
-  }
-  if (digits == 0 || digits > 18) return false;
-  d.mantissa = negative ? -static_cast<int128>(m) : static_cast<int128>(m);
-  d.exponent = m == 0 ? 0 : -(fraction > 0 ? fraction : 0);
-  d.exact = true;
-  return true;
+double to_double(int128 mantissa, int exponent) {
+  double out;
+  if (detail::small_to_double(mantissa, exponent, out)) return out;
+  return to_double_by_text(mantissa, exponent);
 }
+
 }  // namespace
 
 std::optional<decimal> parse_decimal(std::string_view text, bool decimal_comma) {
   {
     decimal quick;
-    if (parse_plain(text, decimal_comma ? ',' : '.', quick)) return quick;
+    if (detail::parse_plain(text, decimal_comma ? ',' : '.', quick)) return quick;
   }
   std::size_t i = 0, n = text.size();
   while (i < n && (text[i] == ' ' || text[i] == '\t')) ++i;

@@ -1,5 +1,6 @@
 #include "contrasta/orthogonality.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <limits>
 
@@ -13,6 +14,43 @@ double weighted_inner(const contrast& a, const contrast& b, std::span<const std:
   double s = 0;
   for (std::size_t i = 0; i < n.size() && i < a.coefficients.size() && i < b.coefficients.size(); ++i) {
     double product = a.coefficients[i] * b.coefficients[i];
+    if (product == 0) continue;
+    if (n[i] == 0) return nan;
+    s += product / static_cast<double>(n[i]);
+  }
+  return s;
+}
+
+// A contrast with the levels it involves: weighted_inner over a pair of contrasts visits only
+// the levels where both coefficients are non-zero, in increasing order, so walking the shorter
+// list of involved levels gives the same terms in the same order (all-pairs families of many
+// levels have a million pairs, each involving two levels).
+struct sparse_contrast {
+  const contrast* c = nullptr;
+  std::vector<std::size_t> involved;  // levels below the usable length with a non-zero coefficient
+  bool finite = true;                 // with a non-finite coefficient, 0 * inf forces the full walk
+  double self = 0;                    // weighted_inner(c, c, n)
+};
+
+sparse_contrast sparse_of(const contrast& c, std::span<const std::size_t> n) {
+  sparse_contrast s;
+  s.c = &c;
+  for (std::size_t i = 0; i < n.size() && i < c.coefficients.size(); ++i) {
+    if (!std::isfinite(c.coefficients[i])) s.finite = false;
+    if (c.coefficients[i] != 0) s.involved.push_back(i);
+  }
+  s.self = weighted_inner(c, c, n);
+  return s;
+}
+
+double sparse_inner(const sparse_contrast& a, const sparse_contrast& b, std::span<const std::size_t> n) {
+  if (!a.finite || !b.finite) return weighted_inner(*a.c, *b.c, n);
+  const auto& walk = a.involved.size() <= b.involved.size() ? a.involved : b.involved;
+  const std::size_t length = std::min(a.c->coefficients.size(), b.c->coefficients.size());
+  double s = 0;
+  for (std::size_t i : walk) {
+    if (i >= length) break;
+    double product = a.c->coefficients[i] * b.c->coefficients[i];
     if (product == 0) continue;
     if (n[i] == 0) return nan;
     s += product / static_cast<double>(n[i]);
@@ -53,14 +91,16 @@ orthogonality_report orthogonality(const prepared_data& p, const std::vector<con
   std::vector<std::size_t> proper;  // contrasts whose coefficients sum to zero
   for (std::size_t i = 0; i < contrasts.size(); ++i)
     if (sums_to_zero(contrasts[i])) proper.push_back(i);
+  std::vector<sparse_contrast> sparse;
+  for (std::size_t i : proper) sparse.push_back(sparse_of(contrasts[i], n));
   for (std::size_t a = 0; a < proper.size(); ++a)
     for (std::size_t b = a + 1; b < proper.size(); ++b) {
-      const auto& ca = contrasts[proper[a]];
-      const auto& cb = contrasts[proper[b]];
-      if (!orthogonal_for_design(ca, cb, n)) {
+      // design_correlation and orthogonal_for_design, with the self terms computed once.
+      const double r = sparse_inner(sparse[a], sparse[b], n) / std::sqrt(sparse[a].self * sparse[b].self);
+      if (!(std::isfinite(r) && std::abs(r) <= 1e-9)) {
         out.mutually_orthogonal = false;
         out.non_orthogonal_pairs.emplace_back(proper[a], proper[b]);
-        out.non_orthogonal_correlations.push_back(design_correlation(ca, cb, n));
+        out.non_orthogonal_correlations.push_back(r);
       }
     }
   for (std::size_t i : proper) {

@@ -2,6 +2,7 @@
 #include "contrasta/overall.hpp"
 
 #include <cmath>
+#include <cstdint>
 
 #include "diagnostic_ranks.hpp"
 #include "distributions.hpp"
@@ -143,23 +144,29 @@ overall_test kruskal_wallis_test(const prepared_data& p) {
   t.test = "kruskal-wallis";
   t.null_hypothesis = "every level has the same distribution";
   std::vector<std::span<const double>> samples;
-  for (std::size_t i = 0; i < p.data.level_count(); ++i) samples.push_back(p.data.group(i));
-  const auto ranked = detail::rank_together(samples);
-  const double N = static_cast<double>(ranked.ranks.size());
+  for (std::size_t i = 0; i < p.data.level_count(); ++i) samples.push_back(sorted_group(p, i));
+  // Rank sums kept as twice their value in integers: exact for any N below 2^32, so the sum
+  // does not depend on the order in which the ranks arrive.
+  std::vector<std::uint64_t> twice_rank_sum(samples.size(), 0);
+  double tie_sum = 0;
+  detail::for_each_tie_block(samples, [&](std::size_t first, std::span<const detail::run_position> members) {
+    const std::uint64_t twice_mid = 2 * first + 1 + members.size();
+    for (const auto& m : members) twice_rank_sum[m.run] += twice_mid;
+    tie_sum += detail::block_tie_term(members.size());
+  });
+  const double N = static_cast<double>(p.data.size());
   // sum n_i (Rbar_i - (N+1)/2)^2 is the same quantity as sum R_i^2/n_i - N(N+1)^2/4 without the
   // cancellation.
   double spread = 0;
-  std::size_t start = 0;
-  for (auto s : samples) {
+  for (std::size_t i = 0; i < samples.size(); ++i) {
+    const auto s = samples[i];
     if (s.empty()) continue;
-    double rank_sum = 0;
-    for (std::size_t j = 0; j < s.size(); ++j) rank_sum += ranked.ranks[start + j];
-    start += s.size();
+    const double rank_sum = static_cast<double>(twice_rank_sum[i]) / 2;
     const double d = rank_sum / static_cast<double>(s.size()) - (N + 1) / 2;
     spread += static_cast<double>(s.size()) * d * d;
   }
   const double h = 12 / (N * (N + 1)) * spread;
-  const double correction = 1 - ranked.tie_sum / (N * N * N - N);
+  const double correction = 1 - tie_sum / (N * N * N - N);
   t.statistic = h / correction;
   t.df1 = static_cast<double>(samples.size()) - 1;
   t.p_value = chi_squared_upper_tail(t.statistic, t.df1);

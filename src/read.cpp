@@ -16,6 +16,7 @@
 
 #include "contrasta/decimal.hpp"
 #include "contrasta/error.hpp"
+#include "decimal_plain.hpp"
 
 namespace contrasta {
 namespace {
@@ -30,14 +31,14 @@ class record_reader {
 
   // The next record as fields; false at the end of input. Views stay valid until the next call.
   bool next(std::vector<std::string_view>& fields, char delimiter) {
+    fields.clear();
+    if (scan_plain_line(fields, delimiter)) return true;
+    fields.clear();
     std::string_view line;
     if (!next_line(line)) return false;
     record_line_ = line_number_;
+    if (split_plain(line, delimiter, fields)) return true;
     fields.clear();
-    if (line.find('"') == std::string_view::npos) {
-      split_plain(line, delimiter, fields);
-      return true;
-    }
     split_quoted(line, delimiter, fields);
     return true;
   }
@@ -95,17 +96,50 @@ class record_reader {
     if (in_.bad()) throw input_error("cannot read " + source_ + ": read error");
   }
 
-  static void split_plain(std::string_view line, char delimiter, std::vector<std::string_view>& fields) {
-    std::size_t start = 0;
-    for (;;) {
-      std::size_t at = line.find(delimiter, start);
-      if (at == std::string_view::npos) {
-        fields.push_back(line.substr(start));
-        return;
+  // The common record, a line without quotes whose end is already in the buffer, split while
+  // its end is sought: one pass over the bytes instead of a library search for the line end and
+  // a second pass for the delimiters (data lines are short, so the calls cost more than the
+  // bytes). Gives the fields next_line + split_plain would; false, consuming nothing, otherwise.
+  bool scan_plain_line(std::vector<std::string_view>& fields, char delimiter) {
+    if (delimiter == '\r' || delimiter == '\n' || delimiter == '"') return false;
+    const char* const start = buffer_.data() + pos_;
+    const char* const stop = buffer_.data() + end_;
+    const char* field = start;
+    for (const char* c = start; c != stop; ++c) {
+      if (*c == '\n') {
+        // next_line drops one '\r' before the line break.
+        const char* field_end = c > start && c[-1] == '\r' ? c - 1 : c;
+        fields.emplace_back(field, static_cast<std::size_t>(field_end - field));
+        pos_ = static_cast<std::size_t>(c + 1 - buffer_.data());
+        record_line_ = ++line_number_;
+        return true;
       }
-      fields.push_back(line.substr(start, at - start));
-      start = at + 1;
+      if (*c == delimiter) {
+        fields.emplace_back(field, static_cast<std::size_t>(c - field));
+        field = c + 1;
+      } else if (*c == '"') {
+        return false;
+      }
     }
+    return false;
+  }
+
+  // Splits a line without quotes in one pass over its bytes (data lines are short, so one loop
+  // beats a library search per field); false, with nothing promised about `fields`, when the
+  // line holds a quote and needs split_quoted.
+  static bool split_plain(std::string_view line, char delimiter, std::vector<std::string_view>& fields) {
+    const char* start = line.data();
+    const char* const end = start + line.size();
+    for (const char* c = start; c != end; ++c) {
+      if (*c == delimiter) {
+        fields.emplace_back(start, static_cast<std::size_t>(c - start));
+        start = c + 1;
+      } else if (*c == '"') {
+        return false;
+      }
+    }
+    fields.emplace_back(start, static_cast<std::size_t>(end - start));
+    return true;
   }
 
   // RFC 4180: a field may be quoted; "" inside a quoted field is one quote; a quoted field may
@@ -234,7 +268,9 @@ struct mapped_block {
   explicit mapped_block(std::size_t n) : size(n) {
     std::size_t bytes = n * sizeof(T);
     if (bytes >= (1u << 18)) {
-      void* p = ::mmap(nullptr, bytes, PROT_READ | PROT_WRITE, MAP_PRIVATE | MAP_ANONYMOUS, -1, 0);
+      // Populated at once: the block is about to be filled, and one call beats a page fault per
+      // 4 KiB page.
+      void* p = ::mmap(nullptr, bytes, PROT_READ | PROT_WRITE, MAP_PRIVATE | MAP_ANONYMOUS | MAP_POPULATE, -1, 0);
       if (p == MAP_FAILED) throw std::bad_alloc();
       data = static_cast<T*>(p);
       mapped = true;
@@ -298,6 +334,7 @@ struct response_state {
   std::size_t column = 0;
   bool have_reference = false;
   decimal reference;
+  detail::plain_reference plain;  // the reference for the fast path (unusable until it is set)
   std::string reference_text;
   std::vector<level_store> stores;  // per level
   bool failed = false;               // all-numeric: a non-numeric value seen, column dropped
@@ -306,7 +343,7 @@ struct response_state {
 class long_reader {
  public:
   long_reader(record_reader& records, const read_request& request, char delimiter)
-      : records_(records), request_(request), delimiter_(delimiter) {
+      : records_(records), request_(request), delimiter_(delimiter), point_(request.decimal_comma ? ',' : '.') {
     for (const auto& token : request.missing_tokens)
       if (parse_decimal(token, request.decimal_comma)) numeric_missing_ = true;
   }
@@ -403,12 +440,41 @@ class long_reader {
     responses_.push_back(std::move(r));
   }
 
+  // A name of up to 7 bytes packed into an integer, with the length in the top byte, so that
+  // short names (most level names: T1, control, 40) compare as one integer; 0 for longer names.
+  static std::uint64_t short_key(std::string_view name) {
+    if (name.size() > 7) return 0;
+    std::uint64_t key = static_cast<std::uint64_t>(name.size()) << 56;
+    for (std::size_t i = 0; i < name.size(); ++i) key |= static_cast<std::uint64_t>(static_cast<unsigned char>(name[i])) << (8 * i);
+    return key;
+  }
+
   std::size_t level_index(std::string_view name, bool create) {
-    if (last_level_ != npos && name == levels_[last_level_]) return last_level_;
     if (levels_.size() <= 16) {
-      // A few levels: comparing the names beats hashing.
-      for (std::size_t i = 0; i < levels_.size(); ++i)
-        if (levels_[i].size() == name.size() && levels_[i] == name) return last_level_ = i;
+      // A few levels with short names: compare the packed names, all of them, without an early
+      // exit (the level of the next row is unpredictable, so a branch on the match would
+      // mispredict about once a row).
+      const std::uint64_t key = short_key(name);
+      if (key != 0) {
+        std::size_t found = npos;
+        for (std::size_t i = 0; i < short_keys_.size(); ++i) found = short_keys_[i] == key ? i : found;
+        if (found != npos) return found;
+      }
+    }
+    return level_index_slow(name, create);
+  }
+
+  // Long names, many levels, and new levels.
+  [[gnu::noinline]] std::size_t level_index_slow(std::string_view name, bool create) {
+    if (levels_.size() <= 16) {
+      if (short_key(name) == 0) {
+        if (last_level_ != npos && name == levels_[last_level_]) return last_level_;
+        // A few levels: comparing the names beats hashing.
+        for (std::size_t i = 0; i < levels_.size(); ++i)
+          if (levels_[i].size() == name.size() && levels_[i] == name) return last_level_ = i;
+      }
+    } else if (last_level_ != npos && name == levels_[last_level_]) {
+      return last_level_;
     }
     auto it = levels_.size() <= 16 ? level_map_.end() : level_map_.find(name);
     std::size_t index;
@@ -419,6 +485,7 @@ class long_reader {
       if (!valid_utf8(name)) fail_at(group_, "the level name is not valid UTF-8; save the file as UTF-8");
       index = levels_.size();
       levels_.emplace_back(name);
+      short_keys_.push_back(short_key(name));
       level_map_.emplace(std::string(name), index);
       for (auto& r : responses_) r.stores.emplace_back();
     }
@@ -450,13 +517,31 @@ class long_reader {
     for (auto& r : responses_) {
       if (r.failed) continue;
       std::string_view field = fields[r.column];
+      // The common row once the reference is known: a plain number that cannot be a missing
+      // token, centred in 64-bit integers. Exactly what the general path below would store.
+      if (!numeric_missing_) {
+        double centred;
+        if (detail::centre_plain_text(field, point_, r.plain, centred)) {
+          r.stores[level].add(centred, records_.line());
+          continue;
+        }
+      }
       // Parse first: a number is missing only when a missing token is itself numeric (-99).
-      auto d = parse_decimal(field, request_.decimal_comma);
-      if ((!d || numeric_missing_) && is_missing(field)) {
+      // A plain decimal is parsed in place (no optional to copy: a 16-byte copy of the mantissa
+      // just written as two halves stalls store forwarding, once per row).
+      decimal value;
+      bool parsed = detail::parse_plain(field, point_, value);
+      if (!parsed) {
+        if (auto general = parse_decimal(field, request_.decimal_comma)) {
+          value = *general;
+          parsed = true;
+        }
+      }
+      if ((!parsed || numeric_missing_) && is_missing(field)) {
         ++r.stores[level].missing;
         continue;
       }
-      if (!d) {
+      if (!parsed) {
         if (all_numeric_) {
           r.failed = true;
           continue;
@@ -470,14 +555,17 @@ class long_reader {
           fail_at(r.column, quote_for_message(field) + " is not a number; if the file uses decimal commas, add --decimal-comma");
         fail_at(r.column, quote_for_message(field) + " is not a number; correct it, or declare it missing with --missing");
       }
-      if (!(d->exact && d->exponent <= 0) && !std::isfinite(to_double(*d)))
+      if (!(value.exact && value.exponent <= 0) && !std::isfinite(to_double(value)))
         fail_at(r.column, quote_for_message(field) + " is too large for double precision; rescale the response");
       if (!r.have_reference) {
         r.have_reference = true;
-        r.reference = *d;
+        r.reference = value;
         r.reference_text = trim(field);
+        r.plain = detail::plain_reference_of(value);
       }
-      r.stores[level].add(centred_difference(*d, r.reference), records_.line());
+      double centred;
+      if (!detail::centred_plain(value, r.reference, centred)) centred = centred_difference(value, r.reference);
+      r.stores[level].add(centred, records_.line());
     }
   }
 
@@ -521,12 +609,14 @@ class long_reader {
   record_reader& records_;
   const read_request& request_;
   char delimiter_;
+  char point_;  // the decimal point of the response columns
   std::vector<std::string> header_;
   std::vector<bool> numeric_hint_;
   std::size_t group_ = 0;
   bool all_numeric_ = false, restricted_ = false, numeric_missing_ = false;
   std::vector<response_state> responses_;
   std::vector<std::string> levels_;
+  std::vector<std::uint64_t> short_keys_;  // short_key of each level, 0 for long names
   std::unordered_map<std::string, std::size_t, transparent_hash, std::equal_to<>> level_map_;
   std::size_t last_level_ = npos;
   std::string trimmed_group_;

@@ -4,10 +4,14 @@
 
 #include <doctest/doctest.h>
 
+#include <algorithm>
 #include <cmath>
+#include <numeric>
+#include <random>
 #include <string>
 #include <vector>
 
+#include "distributions.hpp"
 #include "fixture.hpp"
 
 using namespace contrasta;
@@ -85,8 +89,13 @@ TEST_CASE("Shapiro-Wilk agrees with scipy.stats.shapiro within its single precis
     const double ew = fixture::relative_error(r.w, c["w"].num());
     const double want_p = c["p_value"].num();
     CHECK(ew <= 2e-5);
-    if (x.size() <= 500) CHECK(std::abs(r.p_value - want_p) <= 2e-3 * want_p + 1e-6);
-    CHECK(std::abs(shapiro_wilk_p_value(c["w"].num(), x.size()) - want_p) <= 2e-3 * want_p + 1e-6);
+    // For n = 3, p = (6/pi)(asin(sqrt W) - pi/3) has slope 3/(pi sqrt(W(1-W))) at W, which
+    // becomes steep as W nears 3/4; scipy's single-precision W (off by a few float steps, ~1e-6)
+    // then moves its p by more than 1e-6 (W = 0.7500247: scipy p 5.3275e-5, the formula on that
+    // very W 5.4420e-5), so the allowance grows with that slope.
+    const double w_slack = x.size() == 3 ? 3 / (3.14159265358979 * std::sqrt(r.w * (1 - r.w))) * 1e-6 : 0.0;
+    if (x.size() <= 500) CHECK(std::abs(r.p_value - want_p) <= 2e-3 * want_p + 1e-6 + w_slack);
+    CHECK(std::abs(shapiro_wilk_p_value(c["w"].num(), x.size()) - want_p) <= 2e-3 * want_p + 1e-6 + w_slack);
     worst_w = std::max(worst_w, ew);
     if (want_p > 1e-3 && x.size() <= 500) worst_p = std::max(worst_p, std::abs(r.p_value - want_p) / want_p);
   }
@@ -175,4 +184,83 @@ TEST_CASE("spread balance: SD ratio, n ratio, larger variances in smaller groups
   const auto q = prepared_of({{0, 4, 8, 12, 0, 4, 8, 12}, {1, 2, 1, 2}});
   CHECK(!describe_spread(q).larger_variances_in_smaller_groups);
   CHECK(describe_spread(q).pooled_se_ratio > 1);
+}
+
+namespace {
+
+// Fligner-Killeen written out the direct way (a stable sort of all the deviations, mid-ranks in
+// data order), as the library computed it before it ranked the sorted levels by merging them.
+double fligner_by_sorting(const std::vector<std::vector<double>>& groups) {
+  std::vector<double> all;
+  std::vector<double> medians;
+  for (const auto& g : groups) {
+    medians.push_back(median_of(g));
+    for (double y : g) all.push_back(std::abs(y - medians.back()));
+  }
+  std::vector<std::size_t> order(all.size());
+  std::iota(order.begin(), order.end(), std::size_t{0});
+  std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) { return all[a] < all[b]; });
+  std::vector<double> ranks(all.size());
+  for (std::size_t i = 0; i < order.size();) {
+    std::size_t j = i + 1;
+    while (j < order.size() && all[order[j]] == all[order[i]]) ++j;
+    for (std::size_t m = i; m < j; ++m) ranks[order[m]] = 0.5 * static_cast<double>(i + 1 + j);
+    i = j;
+  }
+  const double N = static_cast<double>(all.size());
+  std::vector<double> scores;
+  for (double r : ranks) scores.push_back(boost::math::quantile(detail::normal(), 0.5 + r / (2 * (N + 1))));
+  const double mean = accurate_mean(scores);
+  const double variance = sum_squared_deviations(scores, mean) / (N - 1);
+  double between = 0;
+  std::size_t start = 0;
+  for (const auto& g : groups) {
+    const double dm = accurate_mean(std::span<const double>(scores.data() + start, g.size())) - mean;
+    start += g.size();
+    between += static_cast<double>(g.size()) * dm * dm;
+  }
+  return between / variance;
+}
+
+// Groups with heavy ties (a grid of 0.5), values at the median, odd and even sizes; `scale`
+// multiplies the group sizes (large ones take the parallel paths).
+std::vector<std::vector<double>> tied_groups(std::size_t scale, std::uint64_t seed) {
+  std::mt19937_64 rng(seed);
+  std::vector<std::vector<double>> out;
+  for (std::size_t g = 0; g < 6; ++g) {
+    std::vector<double> x;
+    const std::size_t n = scale * (5 + g) + g % 2;
+    for (std::size_t i = 0; i < n; ++i) x.push_back(0.5 * static_cast<double>(rng() % (7 + 3 * g)) + static_cast<double>(g));
+    out.push_back(x);
+  }
+  return out;
+}
+
+}  // namespace
+
+TEST_CASE("diagnostics read from the sorted levels equal the direct computations exactly") {
+  for (std::size_t scale : {1, 3, 2000}) {
+    for (std::uint64_t seed : {1, 2, 3}) {
+      const auto groups = tied_groups(scale, seed);
+      const auto p = prepared_of(groups);
+      sample_list samples;
+      for (const auto& g : groups) samples.emplace_back(g);
+      const auto tests = variance_tests(p);
+      REQUIRE(tests.size() == 5);
+      CHECK(tests[0].statistic == levene_test(samples, levene_centre::mean).statistic);
+      CHECK(tests[1].statistic == levene_test(samples, levene_centre::median).statistic);
+      CHECK(tests[2].statistic == levene_test(samples, levene_centre::trimmed, 0.1).statistic);
+      CHECK(tests[4].statistic == fligner_test(samples).statistic);
+      CHECK(tests[4].statistic == fligner_by_sorting(groups));
+      const auto a = find_outliers(p), b = find_outliers(p.data);
+      REQUIRE(a.size() == b.size());
+      for (std::size_t i = 0; i < a.size(); ++i) CHECK((a[i].row == b[i].row && a[i].robust_z == b[i].robust_z));
+      const auto t = describe_ties(p), u = describe_ties(p.data);
+      CHECK(t.distinct_values == u.distinct_values);
+      CHECK(t.tied_share == u.tied_share);
+      CHECK(t.scale_min == u.scale_min);
+      CHECK(t.scale_max == u.scale_max);
+      CHECK(t.integer_values == u.integer_values);
+    }
+  }
 }

@@ -61,3 +61,34 @@ TEST_CASE("Helmert with equal n: complete orthogonal set; a partial set leaves a
   CHECK_FALSE(orthogonality(p, all_pairs(p.data.levels)).mutually_orthogonal);
   CHECK(orthogonal_for_design(family[0], family[1], group_sizes(p)));
 }
+
+TEST_CASE("the orthogonality report lists exactly the pairs design_correlation calls non-orthogonal") {
+  // The report walks only the levels two contrasts share; the pairwise definition walks all.
+  // An empty level makes some correlations NaN, which count as not orthogonal.
+  const auto p = prepare(make_dataset({"a", "b", "c", "d", "e"}, {{1, 2, 3}, {2, 4}, {}, {5, 6, 8, 9}, {1, 1.5, 3}}));
+  auto family = all_pairs(p.data.levels);
+  for (const char* kind : {"helmert", "adjacent", "grand-mean"}) {
+    const auto more = make_family(kind, p.data.levels, group_sizes(p));
+    family.insert(family.end(), more.begin(), more.end());
+  }
+  contrast linear;  // a linear combination: left out of the pairs
+  linear.name = linear.expression = "a + b";
+  linear.coefficients = {1, 1, 0, 0, 0};
+  family.push_back(linear);
+  const auto report = orthogonality(p, family);
+  const auto n = group_sizes(p);
+  std::vector<std::pair<std::size_t, std::size_t>> pairs;
+  std::vector<double> correlations;
+  for (std::size_t a = 0; a + 1 < family.size(); ++a)
+    for (std::size_t b = a + 1; b + 1 < family.size(); ++b)
+      if (!orthogonal_for_design(family[a], family[b], n)) {
+        pairs.emplace_back(a, b);
+        correlations.push_back(design_correlation(family[a], family[b], n));
+      }
+  CHECK(report.non_orthogonal_pairs == pairs);
+  REQUIRE(report.non_orthogonal_correlations.size() == correlations.size());
+  for (std::size_t i = 0; i < correlations.size(); ++i) {
+    const double got = report.non_orthogonal_correlations[i], want = correlations[i];
+    CHECK((got == want || (std::isnan(got) && std::isnan(want))));
+  }
+}

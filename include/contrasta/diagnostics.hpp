@@ -111,6 +111,8 @@ struct outlier {
 // Observations whose modified z-score within their level exceeds `threshold` in absolute value
 // (3.5 by Iglewicz & Hoaglin's rule), in level then row order.
 std::vector<outlier> find_outliers(const dataset& data, double threshold = 3.5);
+// The same from prepared data, reading its sorted levels (no sort).
+std::vector<outlier> find_outliers(const prepared_data& p, double threshold = 3.5);
 
 // Facts about ties and discreteness over all observations together (rank methods rank them
 // together).
@@ -125,6 +127,8 @@ struct ties_summary {
 };
 
 ties_summary describe_ties(const dataset& data);
+// The same from prepared data, merging its sorted levels (no sort).
+ties_summary describe_ties(const prepared_data& p);
 
 // Balance of spreads and of group sizes.
 struct spread_balance {

@@ -28,11 +28,22 @@ struct group_summary {
 // Summaries of every level. `trim` sets the trimmed mean and winsorized variance.
 std::vector<group_summary> summarize(const dataset& data, double trim = 0.2);
 
+// The summary of one level, given that level's observations in ascending order (prepare sorts
+// each level once and shares the sorted copy with the summaries and the diagnostics).
+group_summary summarize_level(const dataset& data, std::size_t level, std::span<const double> sorted, double trim);
+
 // Accurate helpers on a sample, used by the summaries and by resampling code.
 double accurate_mean(std::span<const double> x);                 // two-pass corrected mean
 double sum_squared_deviations(std::span<const double> x, double mean);  // compensated
 double median_of(std::span<const double> x);                     // copies, nth_element
 double trimmed_mean_of(std::span<const double> x, double trim);
 double winsorized_variance_of(std::span<const double> x, double trim);
+// The same three on a sample already in ascending order (no copy, no sort for the first two);
+// each gives exactly the value of its unsorted twin.
+double median_of_sorted(std::span<const double> sorted);
+double trimmed_mean_of_sorted(std::span<const double> sorted, double trim);
+double winsorized_variance_of_sorted(std::span<const double> sorted, double trim);
+// |y - centre| for every y of an ascending sample, in ascending order, in one linear pass.
+std::vector<double> sorted_absolute_deviations(std::span<const double> sorted, double centre);
 
 }  // namespace contrasta
