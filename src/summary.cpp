@@ -46,13 +46,26 @@ double sum_squared_deviations(std::span<const double> x, double mean) {
   return std::max(0.0, s.value() - d.value() * d.value() / n);
 }
 
+namespace {
+
+// The midpoint of the two middle values as numpy.median forms it, (a + b) / 2: the rounding
+// decides whether the two middle deviations |y - median| tie, and Fligner-Killeen's ranks (and
+// so agreement with scipy.stats.fligner) depend on that. a + (b - a) / 2 rounds differently.
+// Only when a + b overflows is the other form used.
+double middle_of(double a, double b) {
+  const double sum = a + b;
+  return std::isfinite(sum) ? sum / 2 : a + (b - a) / 2;
+}
+
+}  // namespace
+
 double median_of_sorted(std::span<const double> sorted) {
   if (sorted.empty()) return nan;
   const std::size_t mid = sorted.size() / 2;
   const double upper = sorted[mid];
   if (sorted.size() % 2 == 1) return upper;
   const double lower = sorted[mid - 1];
-  return lower + (upper - lower) / 2;
+  return middle_of(lower, upper);
 }
 
 double median_of(std::span<const double> x) {
@@ -64,7 +77,7 @@ double median_of(std::span<const double> x) {
   if (v.size() % 2 == 1) return upper;
   // The largest of the lower half is the order statistic below v[mid], as in median_of_sorted.
   double lower = *std::max_element(v.begin(), v.begin() + static_cast<std::ptrdiff_t>(mid));
-  return lower + (upper - lower) / 2;
+  return middle_of(lower, upper);
 }
 
 namespace {
