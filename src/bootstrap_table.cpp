@@ -20,10 +20,13 @@ bootstrap_table::bootstrap_table(const resampling_pool& pool) {
     const bool paired = n >= 2 && n <= largest_paired && paired_entries + n * n <= pair_budget;
     pair_base.push_back(static_cast<std::uint32_t>(entries.size() / 2));
     if (paired) {
+      const std::size_t at = entries.size();
+      entries.resize(at + 2 * n * n);
+      double* out = entries.data() + at;
       for (std::size_t i = 0; i < n; ++i)
-        for (std::size_t j = 0; j < n; ++j) {
-          entries.push_back(x[i].value + x[j].value);
-          entries.push_back(x[i].square + x[j].square);
+        for (std::size_t j = 0; j < n; ++j, out += 2) {
+          out[0] = x[i].value + x[j].value;
+          out[1] = x[i].square + x[j].square;
         }
       paired_entries += n * n;
       pairs.push_back(n32 / 2);
