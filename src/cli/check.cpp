@@ -141,14 +141,7 @@ void write_calibration_json(json_writer& json, const calibration_report& c) {
 void write_check_object(json_writer& json, const check_result& r, bool with_tool_and_seed) {
   const auto& p = r.prepared;
   json.begin_object();
-  if (with_tool_and_seed)
-    json.key("tool").begin_object().field("name", "contrasta").field("version", version()).end_object();
-  json.key("input").begin_object();
-  json.field("source", p.data.source).field("group", p.data.group_column).field("response", p.data.response);
-  json.key("levels").strings(p.data.levels);
-  json.field("n_total", static_cast<std::uint64_t>(p.data.size()));
-  json.field("n_missing", static_cast<std::uint64_t>(p.data.missing_total()));
-  json.end_object();
+  write_tool_and_input_json(json, p, with_tool_and_seed);
   if (with_tool_and_seed) json.field("seed", r.options.seed);
   write_groups_json(json, p);
   write_anova_json(json, p.anova);

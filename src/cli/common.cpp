@@ -234,4 +234,15 @@ std::function<void(double)> progress_printer(bool quiet, const std::string& what
   };
 }
 
+comparison_request comparison_request_of(const method_options& m, const common_run_options& r,
+                                         const contrast_options& c) {
+  comparison_request request;
+  request.methods = m.methods;
+  request.adjust = m.adjust;
+  request.options = make_analysis_options(r);
+  apply_method_options(m, request.options);
+  request.options.allow_linear = c.allow_linear;
+  return request;
+}
+
 }  // namespace contrasta::cli

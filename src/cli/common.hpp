@@ -9,6 +9,7 @@
 #include <string>
 #include <vector>
 
+#include "contrasta/comparison.hpp"
 #include "contrasta/contrast.hpp"
 #include "contrasta/dataset.hpp"
 #include "contrasta/options.hpp"
@@ -81,6 +82,12 @@ struct common_run_options {
 void add_run_options(CLI::App* command, common_run_options& r);
 // Fills the shared fields of analysis_options; draws a seed when none was given.
 analysis_options make_analysis_options(const common_run_options& r);
+
+// The part of a comparison request that compare and report build alike from their options:
+// methods, adjustment, analysis options (run, method and --allow-linear settings). Contrasts,
+// effect sizes and progress are the caller's.
+comparison_request comparison_request_of(const method_options& m, const common_run_options& r,
+                                         const contrast_options& c);
 
 // The command line as typed, for the "reproduce with" line of reports.
 std::string command_line();

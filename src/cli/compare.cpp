@@ -57,12 +57,7 @@ void adjust_across_responses(std::vector<comparison>& runs, const std::string& m
 
 void run_compare(const compare_settings& s) {
   auto datasets = load_datasets(s.data);
-  comparison_request request;
-  request.methods = s.method.methods;
-  request.adjust = s.method.adjust;
-  request.options = make_analysis_options(s.run);
-  apply_method_options(s.method, request.options);
-  request.options.allow_linear = s.contrasts.allow_linear;
+  comparison_request request = comparison_request_of(s.method, s.run, s.contrasts);
   request.effect_sizes = !s.no_effect_sizes;
   const bool batch = datasets.size() > 1;
   if (!batch) request.options.progress = progress_printer(s.output.quiet, "resampling");

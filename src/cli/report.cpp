@@ -196,12 +196,7 @@ std::string reproducing_command(const report_settings& s, std::uint64_t seed) {
 void run_report(const report_settings& s) {
   const std::string format = format_of(s);
   auto datasets = load_datasets(s.data);
-  comparison_request request;
-  request.methods = s.method.methods;
-  request.adjust = s.method.adjust;
-  request.options = make_analysis_options(s.run);
-  apply_method_options(s.method, request.options);
-  request.options.allow_linear = s.contrasts.allow_linear;
+  comparison_request request = comparison_request_of(s.method, s.run, s.contrasts);
   request.options.progress = progress_printer(s.quiet, "resampling");
   std::vector<std::size_t> n;
   for (std::size_t i = 0; i < datasets.front().level_count(); ++i) n.push_back(datasets.front().n(i));

@@ -54,6 +54,17 @@ std::string data_line(const prepared_data& p) {
   return s;
 }
 
+void write_tool_and_input_json(json_writer& json, const prepared_data& p, bool with_tool) {
+  if (with_tool)
+    json.key("tool").begin_object().field("name", "contrasta").field("version", version()).end_object();
+  json.key("input").begin_object();
+  json.field("source", p.data.source).field("group", p.data.group_column).field("response", p.data.response);
+  json.key("levels").strings(p.data.levels);
+  json.field("n_total", static_cast<std::uint64_t>(p.data.size()));
+  json.field("n_missing", static_cast<std::uint64_t>(p.data.missing_total()));
+  json.end_object();
+}
+
 void write_groups_json(json_writer& json, const prepared_data& p) {
   json.key("groups").begin_array();
   for (const auto& g : p.groups) {
@@ -131,15 +142,7 @@ void write_result_json(json_writer& json, const method_result& r) {
 void write_comparison_object(json_writer& json, const comparison& c, bool with_tool_and_seed) {
   const auto& p = c.prepared;
   json.begin_object();
-  if (with_tool_and_seed) {
-    json.key("tool").begin_object().field("name", "contrasta").field("version", version()).end_object();
-  }
-  json.key("input").begin_object();
-  json.field("source", p.data.source).field("group", p.data.group_column).field("response", p.data.response);
-  json.key("levels").strings(p.data.levels);
-  json.field("n_total", static_cast<std::uint64_t>(p.data.size()));
-  json.field("n_missing", static_cast<std::uint64_t>(p.data.missing_total()));
-  json.end_object();
+  write_tool_and_input_json(json, p, with_tool_and_seed);
   if (with_tool_and_seed) json.field("seed", c.options.seed);
   json.key("settings").begin_object();
   json.field("conf", c.options.conf).field("alpha", c.options.alpha).field("alternative", to_string(c.options.side));

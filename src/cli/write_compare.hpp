@@ -26,6 +26,8 @@ void write_comparison_table(std::ostream& out, const comparison& c);
 void write_comparison_markdown(std::ostream& out, const comparison& c);
 
 // Shared pieces for other writers (check, report).
+// The "tool" object (when asked) and the "input" object that open a compare or check document.
+void write_tool_and_input_json(json_writer& json, const prepared_data& p, bool with_tool);
 void write_groups_json(json_writer& json, const prepared_data& p);
 void write_anova_json(json_writer& json, const anova_table& a);
 void write_overall_json(json_writer& json, const std::vector<overall_test>& overall);
