@@ -18,21 +18,9 @@ using namespace contrasta;
 
 namespace {
 
-prepared_data prepared_of(const std::vector<std::vector<double>>& groups) {
-  std::vector<std::string> levels;
-  for (std::size_t i = 0; i < groups.size(); ++i) {
-    std::string name = "g";  // appended, not "g" + to_string: GCC 12 warns falsely (-Wrestrict) on that
-    name += std::to_string(i);
-    levels.push_back(name);
-  }
-  return prepare(make_dataset(levels, groups));
-}
+using fixture::prepared_of;
 
-std::vector<std::vector<double>> groups_of(const fixture::value& v) {
-  std::vector<std::vector<double>> out;
-  for (auto& g : v.arr()) out.push_back(g.numbers());
-  return out;
-}
+using fixture::groups_of;
 
 void check_close(double got, double want, double tolerance, const char* what, double floor = 1e-300) {
   INFO(std::string(what) << ": got " << got << ", want " << want);

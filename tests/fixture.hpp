@@ -1,4 +1,5 @@
-// Reading the JSON reference fixtures written by tests/reference/*_fixtures.py.
+// Reading the JSON reference fixtures written by tests/reference/*_fixtures.py, and the datasets
+// the tests build from their lists of groups.
 // A minimal JSON reader for test code only (the product writes JSON but never reads it).
 #pragma once
 #include <cmath>
@@ -11,6 +12,8 @@
 #include <string>
 #include <variant>
 #include <vector>
+
+#include "contrasta/prepared.hpp"
 
 namespace fixture {
 
@@ -176,6 +179,24 @@ inline double relative_error(double got, double want, double floor = 1e-300) {
   if (std::isnan(got) && std::isnan(want)) return 0;
   if (std::isinf(got) && std::isinf(want) && (got > 0) == (want > 0)) return 0;
   return std::abs(got - want) / std::max(std::abs(want), floor);
+}
+
+// A fixture's list of groups, each a list of numbers.
+inline std::vector<std::vector<double>> groups_of(const value& v) {
+  std::vector<std::vector<double>> out;
+  for (const auto& g : v.arr()) out.push_back(g.numbers());
+  return out;
+}
+
+// The groups as a prepared dataset with levels g0, g1, ...
+inline contrasta::prepared_data prepared_of(const std::vector<std::vector<double>>& groups) {
+  std::vector<std::string> levels;
+  for (std::size_t i = 0; i < groups.size(); ++i) {
+    std::string name = "g";  // appended, not "g" + to_string: GCC 12 warns falsely (-Wrestrict) on that
+    name += std::to_string(i);
+    levels.push_back(name);
+  }
+  return contrasta::prepare(contrasta::make_dataset(levels, groups));
 }
 
 }  // namespace fixture

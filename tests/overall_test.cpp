@@ -17,15 +17,7 @@ using namespace contrasta;
 
 namespace {
 
-prepared_data prepared_of(const std::vector<std::vector<double>>& groups) {
-  std::vector<std::string> levels;
-  for (std::size_t i = 0; i < groups.size(); ++i) {
-    std::string name = "g";  // appended, not "g" + to_string: GCC 12 warns falsely (-Wrestrict) on that
-    name += std::to_string(i);
-    levels.push_back(name);
-  }
-  return prepare(make_dataset(levels, groups));
-}
+using fixture::prepared_of;
 
 void check_test(const overall_test& got, const fixture::value& want, const std::string& name) {
   INFO(name << ": statistic " << got.statistic << " p " << got.p_value);

@@ -174,11 +174,7 @@ prepared_data prepared(const std::vector<std::vector<double>>& groups) {
   }
   return prepare(make_dataset(levels, groups));
 }
-std::vector<std::vector<double>> groups_of(const fixture::value& v) {
-  std::vector<std::vector<double>> out;
-  for (const auto& g : v.arr()) out.push_back(g.numbers());
-  return out;
-}
+using fixture::groups_of;
 }  // namespace
 
 TEST_CASE("Dunn's z against the formula with scipy.stats.rankdata and scipy.stats.norm") {
