@@ -44,36 +44,40 @@ resampling_pool make_bootstrap_pool(const prepared_data& p, std::span<const std:
   return pool;
 }
 
-// Draws resamples with replacement within each group and hands over each resample's row of
-// per-group (sum, sum of squares) pairs. The draws and sums run in the vector kernels (resample_kernels.hpp), a chunk of
-// resamples at a time.
+// Draws resamples with replacement within each group and hands over each chunk of eight
+// resamples' per-group sums and sums of squares (resample_kernels.hpp, bootstrap_sums) with
+// the number of its resamples in use. The draws and sums run in the vector kernels, many
+// chunks per call.
 class bootstrap_walker {
  public:
-  explicit bootstrap_walker(const bootstrap_table& table)
-      : table_(table), draws_(table.ranges, 4), shape_(table.shape()) {
-    scratch_.resize(draws_.count + 16);
-    out_.resize(chunk * 2 * table.draws.size());
+  bootstrap_walker(const bootstrap_table& table, const draw_ranges& draws)
+      : table_(table), plan_(draws.plan()), shape_(table.shape()) {
+    scratch_.resize(2 * lanes * lockstep_segment);
+    out_.resize(resamples_per_call * 2 * table.draws.size());
   }
 
   template <class Consume>
-  void run(word_stream& words, std::uint64_t count, Consume&& consume) {
+  void run(lane_stream& stream, std::uint64_t count, Consume&& consume) {
     const resample_kernels& kernels = best_kernels();
-    const draw_plan plan = draws_.plan();
-    const std::size_t groups = table_.draws.size();
-    for (std::uint64_t done = 0; done < count; done += chunk) {
-      const std::uint64_t m = std::min<std::uint64_t>(chunk, count - done);
-      kernels.bootstrap_sums(words, plan, shape_, table_.entries.data(), m, out_.data(), scratch_.data());
-      for (std::uint64_t r = 0; r < m; ++r) consume(out_.data() + 2 * groups * r);
+    const std::size_t chunk_size = 2 * lanes * table_.draws.size();
+    for (std::uint64_t done = 0; done < count; done += resamples_per_call) {
+      const std::uint64_t m = std::min<std::uint64_t>(resamples_per_call, count - done);
+      kernels.bootstrap_sums(stream, plan_, shape_, table_.entries.data(), m, out_.data(), scratch_.data());
+      for (std::uint64_t c = 0; c < m; c += lanes)
+        consume(out_.data() + chunk_size * (c / lanes), std::min<std::uint64_t>(lanes, m - c));
     }
   }
 
+  static constexpr std::uint64_t lanes = lane_stream::lanes;
+
  private:
-  static constexpr std::uint64_t chunk = 256;  // resamples per kernel call: the rows stay in L1
+  // resamples per kernel call, a multiple of the kernel's eight lanes: the sums stay in L1
+  static constexpr std::uint64_t resamples_per_call = 256;
 
   const bootstrap_table& table_;
-  draw_ranges draws_;
+  draw_plan plan_;
   bootstrap_shape shape_;
-  std::vector<std::uint32_t> scratch_;
+  std::vector<std::uint64_t> scratch_;
   std::vector<double> out_;
 };
 
@@ -81,10 +85,10 @@ template <class Body>
 void for_each_bootstrap_block(std::uint64_t resamples, const analysis_options& o, Body&& body) {
   const std::uint64_t blocks = (resamples + resamples_per_block - 1) / resamples_per_block;
   run_blocks(blocks, o, [&](std::uint64_t b) {
-    const auto words = std::make_unique<word_stream>();
-    start_words(*words, o.seed, b, 1);
+    lane_stream stream;
+    start_lanes(stream, o.seed, b, 1);
     const std::uint64_t first = b * resamples_per_block;
-    body(*words, first, std::min(resamples_per_block, resamples - first), b);
+    body(stream, first, std::min(resamples_per_block, resamples - first), b);
   });
 }
 
@@ -119,6 +123,7 @@ method_result bootstrap_contrast(const prepared_data& p, const contrast& c, cons
   const resampling_pool pool = make_bootstrap_pool(p, levels);
   const contrast_terms terms = make_terms(c, pool);
   const bootstrap_table table(pool);
+  const draw_ranges draws(table.ranges, 4);  // byte offsets of the 16-byte entries
 
   double coefficient_sum = 0, psi = 0, se2 = 0;
   for (std::size_t level : levels) {
@@ -145,26 +150,29 @@ method_result bootstrap_contrast(const prepared_data& p, const contrast& c, cons
   std::vector<double> block_sum(block_hits.size()), block_square(block_hits.size());
   // deviations below and at or below zero, for the BCa bias (counted here, in parallel)
   std::vector<std::uint64_t> block_below(block_hits.size()), block_at_or_below(block_hits.size());
-  for_each_bootstrap_block(m, o, [&](word_stream& rng, std::uint64_t first, std::uint64_t count, std::uint64_t b) {
-    bootstrap_walker walker(table);
+  for_each_bootstrap_block(m, o, [&](lane_stream& rng, std::uint64_t first, std::uint64_t count, std::uint64_t b) {
+    bootstrap_walker walker(table, draws);
     std::uint64_t hits = 0, r = first, below = 0, at_or_below = 0;
     double s = 0, q = 0;
-    walker.run(rng, count, [&](const double* row) {
-      const auto [d, v] = evaluate_row(terms, row);
-      if (keep_t) {
-        const double t = studentized_value(d, v);
-        hits += extreme(t);
-        t_star[r] = t;
-      } else {
-        // two-sided: |d|/sqrt(V) >= bar <=> d^2 >= bar^2 V when V > 0 (no root or division)
-        hits += squared && v > 0 ? d * d >= bar_squared * v : extreme(studentized_value(d, v));
-        deviations[r] = d;
-        below += d < 0;
-        at_or_below += d <= 0;
+    walker.run(rng, count, [&](const double* chunk, std::uint64_t used) {
+      double difference[bootstrap_walker::lanes], variance[bootstrap_walker::lanes];
+      evaluate_chunk(terms, chunk, difference, variance);
+      for (std::uint64_t l = 0; l < used; ++l, ++r) {
+        const double d = difference[l], v = variance[l];
+        if (keep_t) {
+          const double t = studentized_value(d, v);
+          hits += extreme(t);
+          t_star[r] = t;
+        } else {
+          // two-sided: |d|/sqrt(V) >= bar <=> d^2 >= bar^2 V when V > 0 (no root or division)
+          hits += squared && v > 0 ? d * d >= bar_squared * v : extreme(studentized_value(d, v));
+          deviations[r] = d;
+          below += d < 0;
+          at_or_below += d <= 0;
+        }
+        s += d;
+        q += d * d;
       }
-      s += d;
-      q += d * d;
-      ++r;
     });
     block_hits[b] = hits;
     block_sum[b] = s;
@@ -264,6 +272,7 @@ joint_resampling joint_bootstrap_statistics(const prepared_data& p, std::span<co
   const std::vector<std::size_t> levels = involved_levels(family);
   const resampling_pool pool = make_bootstrap_pool(p, levels);
   const bootstrap_table table(pool);
+  const draw_ranges draws(table.ranges, 4);
   std::vector<contrast_terms> terms;
   for (const contrast& c : family) terms.push_back(make_terms(c, pool));
   const std::size_t m = family.size();
@@ -283,15 +292,16 @@ joint_resampling joint_bootstrap_statistics(const prepared_data& p, std::span<co
     out.observed.push_back(studentized_value(psi + p.data.centre * coefficient_sum, se2));
   }
   for_each_bootstrap_block(out.resamples, o,
-                           [&](word_stream& rng, std::uint64_t first, std::uint64_t count, std::uint64_t) {
-                             bootstrap_walker walker(table);
+                           [&](lane_stream& rng, std::uint64_t first, std::uint64_t count, std::uint64_t) {
+                             bootstrap_walker walker(table, draws);
                              double* row = out.statistics.data() + first * m;
-                             walker.run(rng, count, [&](const double* resample) {
+                             walker.run(rng, count, [&](const double* chunk, std::uint64_t used) {
+                               double d[bootstrap_walker::lanes], v[bootstrap_walker::lanes];
                                for (std::size_t j = 0; j < m; ++j) {
-                                 const auto [d, v] = evaluate_row(terms[j], resample);
-                                 row[j] = studentized_value(d, v);
+                                 evaluate_chunk(terms[j], chunk, d, v);
+                                 for (std::uint64_t l = 0; l < used; ++l) row[l * m + j] = studentized_value(d[l], v[l]);
                                }
-                               row += m;
+                               row += used * m;
                              });
                            });
   return out;

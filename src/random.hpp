@@ -58,14 +58,24 @@ struct open_pcg32 : pcg32 {
   std::uint64_t stream_increment() const { return increment(); }
 };
 
-// The word stream of one block of resamples: eight pcg32 streams derived from the seed, the
-// block index and the kind of work (so that a permutation run and a bootstrap run with one seed
-// use unrelated streams), never from the thread that runs the block.
-inline void start_words(word_stream& words, std::uint64_t seed, std::uint64_t block, std::uint64_t kind) {
-  for (std::uint64_t k = 0; k < word_stream::lanes; ++k) {
+// The eight pcg32 streams of one block of resamples, derived from the seed, the block index
+// and the kind of work (so that a permutation run and a bootstrap run with one seed use
+// unrelated streams), never from the thread that runs the block.
+inline void start_lanes(lane_stream& lanes, std::uint64_t seed, std::uint64_t block, std::uint64_t kind) {
+  for (std::uint64_t k = 0; k < lane_stream::lanes; ++k) {
     const open_pcg32 lane(block_stream(seed, (kind << 60) | ((block << 3) + k)));  // block < 2^57
-    words.state[k] = lane.state();
-    words.increment[k] = lane.stream_increment();
+    lanes.state[k] = lane.state();
+    lanes.increment[k] = lane.stream_increment();
+  }
+}
+
+// The word stream of one block: the same eight streams, read in turn.
+inline void start_words(word_stream& words, std::uint64_t seed, std::uint64_t block, std::uint64_t kind) {
+  lane_stream lanes;
+  start_lanes(lanes, seed, block, kind);
+  for (std::uint32_t k = 0; k < word_stream::lanes; ++k) {
+    words.state[k] = lanes.state[k];
+    words.increment[k] = lanes.increment[k];
   }
   words.position = words.end = 0;
 }

@@ -5,6 +5,7 @@
 // level this processor runs is checked, so the levels agree bit for bit.
 #include <doctest/doctest.h>
 
+#include <algorithm>
 #include <array>
 #include <functional>
 #include <map>
@@ -38,6 +39,32 @@ struct reference_words {
               block_stream(seed, (kind << 60) | ((block << 3) + 4)), block_stream(seed, (kind << 60) | ((block << 3) + 5)),
               block_stream(seed, (kind << 60) | ((block << 3) + 6)), block_stream(seed, (kind << 60) | ((block << 3) + 7))} {}
   std::uint32_t next() { return lanes[k++ % 8](); }
+  // Lemire 2019, Algorithm 5, on lane l alone
+  std::uint32_t bounded_in_lane(std::size_t l, std::uint32_t range, std::uint32_t& steps) {
+    for (;;) {
+      const std::uint64_t product = static_cast<std::uint64_t>(lanes[l]()) * range;
+      ++steps;
+      const auto low = static_cast<std::uint32_t>(product);
+      if (low >= range || low >= (0U - range) % range) return static_cast<std::uint32_t>(product >> 32);
+    }
+  }
+  // One chunk of eight resamples drawn in lockstep (resample_kernels.hpp, lockstep_segment):
+  // lane l's draws from generator l, segment by segment of 128 draws, each segment moving every
+  // generator on by as many words as the hungriest lane used. Result: [draw][lane].
+  std::vector<std::array<std::uint32_t, 8>> lockstep_chunk(const std::vector<std::uint32_t>& ranges) {
+    std::vector<std::array<std::uint32_t, 8>> out(ranges.size());
+    for (std::size_t first = 0; first < ranges.size(); first += 128) {
+      const std::size_t end = std::min(ranges.size(), first + 128);
+      std::uint32_t steps[8] = {}, most = 0;
+      for (std::size_t l = 0; l < 8; ++l) {
+        for (std::size_t i = first; i < end; ++i) out[i][l] = bounded_in_lane(l, ranges[i], steps[l]);
+        most = std::max(most, steps[l]);
+      }
+      for (std::size_t l = 0; l < 8; ++l)
+        for (std::uint32_t skip = steps[l]; skip < most; ++skip) lanes[l]();
+    }
+    return out;
+  }
   // Lemire 2019, Algorithm 5, on this stream
   std::uint32_t bounded(std::uint32_t range) {
     for (;;) {
@@ -110,6 +137,35 @@ TEST_CASE("draws equal Lemire's method word by word, including rejections") {
       reference_words ref(7, 11, 0);
       for (std::uint64_t r = 0; r < count; ++r)
         for (std::uint32_t i = 0; i < d.count; ++i) REQUIRE(out[r * d.count + i] == ref.bounded(ranges[i]));
+    }
+  }
+}
+
+TEST_CASE("lockstep draws equal Lemire's method lane by lane, including rejections") {
+  // As above; ranges just above 2^31 make nearly every segment take the lane-by-lane way, and a
+  // plan of 300 draws has three segments (128, 128, 44).
+  std::vector<std::uint32_t> long_plan;
+  for (std::uint32_t i = 0; i < 300; ++i) long_plan.push_back(1000 + 37 * i);
+  const std::vector<std::vector<std::uint32_t>> plans{
+      {7, 6, 5},
+      {10000, 10000, 10000, 10000, 10000, 10000, 10000, 10000, 10000, 100},
+      {(1U << 31) + 1, 5, (1U << 31) + 3, 3000000000U, 9, 10, 11, 12, 13},
+      long_plan};
+  for (const resample_kernels* k : levels()) {
+    CAPTURE(std::string(k->level));
+    for (const auto& ranges : plans) {
+      const draw_ranges d(ranges);
+      const std::uint64_t chunks = 400;
+      std::vector<std::uint64_t> out(8 * chunks * d.count);
+      lane_stream stream;
+      start_lanes(stream, 7, 12, 1);
+      k->lockstep_draws(stream, d.plan(), chunks, out.data());
+      reference_words ref(7, 12, 1);
+      for (std::uint64_t c = 0; c < chunks; ++c) {
+        const auto expected = ref.lockstep_chunk(ranges);
+        for (std::uint32_t i = 0; i < d.count; ++i)
+          for (std::size_t l = 0; l < 8; ++l) REQUIRE(out[(c * d.count + i) * 8 + l] == expected[i][l]);
+      }
     }
   }
 }
@@ -191,55 +247,74 @@ resampling_pool pool_of(const std::vector<std::vector<double>>& groups) {
   return pool;
 }
 
-// `count` resamples of the bootstrap kernel of `level`, rows of (sum, square) per group.
+// `count` resamples of the bootstrap kernel of `level`, as rows of (sum, square) per group
+// (the kernel writes them per chunk of eight, lanes side by side).
 std::vector<double> bootstrap_rows(const resample_kernels& level, const bootstrap_table& table, std::uint64_t count,
                                    std::uint64_t seed, std::uint64_t block) {
   const draw_ranges d(table.ranges, 4);  // byte offsets of 16-byte entries
-  std::vector<double> out(count * 2 * table.draws.size());
-  std::vector<std::uint32_t> scratch(d.count + 16);
-  auto words = std::make_unique<word_stream>();
-  start_words(*words, seed, block, 1);
+  const std::size_t groups = table.draws.size(), chunks = (count + 7) / 8;
+  std::vector<double> chunked(chunks * 16 * groups);
+  std::vector<std::uint64_t> scratch(16 * lockstep_segment);
+  lane_stream stream;
+  start_lanes(stream, seed, block, 1);
   const bootstrap_shape shape = table.shape();
-  level.bootstrap_sums(*words, d.plan(), shape, table.entries.data(), count, out.data(), scratch.data());
-  return out;
+  level.bootstrap_sums(stream, d.plan(), shape, table.entries.data(), count, chunked.data(), scratch.data());
+  std::vector<double> rows(count * 2 * groups);
+  for (std::uint64_t r = 0; r < count; ++r)
+    for (std::size_t g = 0; g < groups; ++g) {
+      const double* at = chunked.data() + ((r / 8) * groups + g) * 16 + r % 8;
+      rows[(r * groups + g) * 2] = at[0];
+      rows[(r * groups + g) * 2 + 1] = at[8];
+    }
+  return rows;
 }
 
 }  // namespace
 
-TEST_CASE("bootstrap sums: one draw on [0, n^2) for each pair of picks in small groups, summed in lane order") {
-  // 11 and 4 observations get pair entries (odd and even n), 130 do not (more than 128)
-  const std::vector<std::vector<double>> groups{noisy_values(11, 8), noisy_values(4, 9), noisy_values(130, 10)};
-  const resampling_pool pool = pool_of(groups);
-  const bootstrap_table table(pool);
-  REQUIRE(table.pairs == std::vector<std::uint32_t>{5, 2, 0});
-  REQUIRE(table.draws == std::vector<std::uint32_t>{6, 2, 130});
-  const std::uint64_t count = 500;
-  for (const resample_kernels* k : levels()) {
-    CAPTURE(std::string(k->level));
-    const std::vector<double> out = bootstrap_rows(*k, table, count, 3, 17);
-    reference_words ref(3, 17, 1);
-    for (std::uint64_t r = 0; r < count; ++r)
-      for (std::size_t g = 0; g < groups.size(); ++g) {
-        const std::vector<double>& x = groups[g];
-        const auto n = static_cast<std::uint32_t>(x.size());
-        // the picks of this group: pairs (i, j) = (k / n, k mod n) of one draw on [0, n^2), then
-        // single draws on [0, n); entry sums added in lane order i mod 8
-        double a[8] = {}, q[8] = {};
-        std::uint32_t i = 0;
-        for (; i < table.pairs[g]; ++i) {
-          const std::uint32_t pick = ref.bounded(n * n), u = pick / n, v = pick % n;
-          a[i % 8] += x[u] + x[v];
-          q[i % 8] += x[u] * x[u] + x[v] * x[v];
+TEST_CASE("bootstrap sums: one draw on [0, n^2) for each pair of picks in small groups, summed in draw order") {
+  // 11 and 4 observations get pair entries (odd and even n), 130 do not (more than 128): 138
+  // draws, three segments; without the large group, one segment (the kernel then draws the
+  // next chunk while it sums this one). 500 resamples: the last chunk is part used.
+  const std::vector<std::vector<std::vector<double>>> designs{
+      {noisy_values(11, 8), noisy_values(4, 9), noisy_values(130, 10)},
+      {noisy_values(11, 8), noisy_values(4, 9), noisy_values(37, 11)}};
+  for (const auto& groups : designs) {
+    const resampling_pool pool = pool_of(groups);
+    const bootstrap_table table(pool);
+    REQUIRE(table.pairs == std::vector<std::uint32_t>{5, 2, groups[2].size() > 128 ? 0U : 18U});
+    const std::uint64_t count = 500;
+    for (const resample_kernels* k : levels()) {
+      CAPTURE(std::string(k->level));
+      CAPTURE(groups[2].size());
+      const std::vector<double> out = bootstrap_rows(*k, table, count, 3, 17);
+      reference_words ref(3, 17, 1);
+      for (std::uint64_t c = 0; c * 8 < count; ++c) {
+        const auto draws = ref.lockstep_chunk(table.ranges);
+        for (std::uint64_t l = 0; l < 8 && c * 8 + l < count; ++l) {
+          const std::uint64_t r = c * 8 + l;
+          for (std::size_t g = 0, first = 0; g < groups.size(); first += table.draws[g], ++g) {
+            const std::vector<double>& x = groups[g];
+            const auto n = static_cast<std::uint32_t>(x.size());
+            // the picks of this group: pairs (i, j) = (k / n, k mod n) of one draw on [0, n^2),
+            // then single draws on [0, n); entries added one by one from +0.0
+            double a = 0, q = 0;
+            for (std::uint32_t i = 0; i < table.draws[g]; ++i) {
+              const std::uint32_t pick = draws[first + i][l];
+              if (i < table.pairs[g]) {
+                const std::uint32_t u = pick / n, v = pick % n;
+                a += x[u] + x[v];
+                q += x[u] * x[u] + x[v] * x[v];
+              } else {
+                a += x[pick];
+                q += x[pick] * x[pick];
+              }
+            }
+            REQUIRE(same_bits(out[(r * groups.size() + g) * 2], a));
+            REQUIRE(same_bits(out[(r * groups.size() + g) * 2 + 1], q));
+          }
         }
-        for (; i < table.draws[g]; ++i) {
-          const std::uint32_t u = ref.bounded(n);
-          a[i % 8] += x[u];
-          q[i % 8] += x[u] * x[u];
-        }
-        auto tree = [](const double* t) { return ((t[0] + t[4]) + (t[2] + t[6])) + ((t[1] + t[5]) + (t[3] + t[7])); };
-        REQUIRE(same_bits(out[(r * 3 + g) * 2], tree(a)));
-        REQUIRE(same_bits(out[(r * 3 + g) * 2 + 1], tree(q)));
       }
+    }
   }
 }
 

@@ -10,10 +10,12 @@
 // level follows exactly (resample_kernels.hpp):
 // - words: lane l of eight pcg32 streams gives words l, l+8, l+16, ...;
 // - a draw takes the next word w and returns (w * range) >> 32, unless the low half of the
-//   product is below the threshold, when it takes the next word instead;
-// - a sum over a sequence x_0..x_{m-1} keeps eight partial sums, lane l adding x_l, x_{l+8},
-//   ... in order from +0.0, with +0.0 added for the positions past m in the last eight, and
-//   ends as ((a0+a4)+(a2+a6)) + ((a1+a5)+(a3+a7)); the square of x is x*x (rounded, never
+//   product is below the threshold, when it takes the next word instead; a permutation
+//   resample takes the stream's next words, a bootstrap resample those of its lane (lockstep);
+// - a permutation sum over a sequence x_0..x_{m-1} keeps eight partial sums, lane l adding
+//   x_l, x_{l+8}, ... in order from +0.0, with +0.0 added for the positions past m in the last
+//   eight, and ends as ((a0+a4)+(a2+a6)) + ((a1+a5)+(a3+a7)); a bootstrap sum adds its entries
+//   one by one from +0.0 in the order of the draws; the square of x is x*x (rounded, never
 //   fused: the kernels are compiled with -ffp-contract=off).
 #include <cstddef>
 #include <cstdint>
@@ -258,57 +260,212 @@ void permutation_sums(word_stream& s, const draw_plan& plan, const permutation_s
   }
 }
 
-// The entries of one group's resample summed in lane order: draw i picks the 16-byte entry
-// (a sum and a sum of squares side by side, so one load and one two-wide addition take both)
-// at byte offset offset[i] from the group's pair entries for its first `pairs` draws, from its
-// single entries for the rest; lane i mod 8 adds it.
-typedef double f64x2 __attribute__((vector_size(16)));
-inline void entry_sums(const char* pair_entries, const char* single_entries, const std::uint32_t* offset,
-                       std::uint32_t draws, std::uint32_t pairs, double* out) {
-  f64x2 lane[lanes] = {};
-  auto entry = [](const char* at) {
-    f64x2 e;
-    __builtin_memcpy(&e, at, sizeof e);
-    return e;
-  };
-  // a group has pair draws and at most one single one (odd n), or single draws only
-  const std::uint32_t main = pairs > 0 ? pairs : draws;
-  const char* const table = pairs > 0 ? pair_entries : single_entries;
-  std::uint32_t i = 0;
-  for (; i + lanes <= main; i += lanes) {
-    const std::uint32_t* o = offset + i;  // constant displacements below, no index arithmetic
-    for (std::uint32_t l = 0; l < lanes; ++l) lane[l] += entry(table + o[l]);
+// ---- lockstep draws and bootstrap sums ------------------------------------------------------
+// (resample_kernels.hpp, lockstep_segment) Lane l of a chunk of eight resamples takes its words
+// from generator l of a lane_stream, which these functions advance directly: row k of a
+// segment is one step of all eight generators, and draw k of every lane comes from it unless a
+// word is rejected.
+
+#if defined(CONTRASTA_KERNEL_AVX512)
+// The eight generators in one vector.
+struct lane_generators {
+  __m512i state, increment, multiplier;
+  explicit lane_generators(const lane_stream& s)
+      : state(_mm512_loadu_si512(s.state)),
+        increment(_mm512_loadu_si512(s.increment)),
+        multiplier(_mm512_set1_epi64(static_cast<long long>(pcg_multiplier))) {}
+  void store(std::uint64_t* to) const { _mm512_storeu_si512(to, state); }
+  void load(const std::uint64_t* from) { state = _mm512_loadu_si512(from); }
+  // One row: the eight lanes' draws on [0, range), each times 2^scale, written to out[0..8);
+  // non-zero if a lane's word is rejected. PCG-XSH-RR's output sits in each lane's low dword,
+  // which is where vpmuludq reads it.
+  std::uint32_t row(std::uint32_t range, std::uint32_t threshold, __m128i scale, std::uint64_t* out) {
+    const __m512i x = _mm512_srli_epi64(_mm512_xor_si512(_mm512_srli_epi64(state, 18), state), 27);
+    const __m512i word = _mm512_rorv_epi32(x, _mm512_srli_epi64(state, 59));
+    state = _mm512_add_epi64(_mm512_mullo_epi64(state, multiplier), increment);
+    const __m512i product = _mm512_mul_epu32(word, _mm512_set1_epi32(static_cast<int>(range)));
+    _mm512_storeu_si512(out, _mm512_sll_epi64(_mm512_srli_epi64(product, 32), scale));
+    // the low halves of the products are the even dwords
+    return _mm512_mask_cmplt_epu32_mask(0x5555, product, _mm512_set1_epi32(static_cast<int>(threshold)));
   }
-  // the last, partial eight: lanes past the end add a zero entry, which leaves a sum that
-  // started at +0.0 unchanged (so the sums are those of the definition), and keeps every lane
-  // index fixed so that the lanes stay in registers
-  if (i < draws) {
-    static constexpr double zero[2] = {0.0, 0.0};
+};
+inline __m128i index_scale(std::uint32_t scale) {
+  return _mm_cvtsi32_si128(static_cast<int>(scale));
+}
+#else
+// The eight generators lane by lane (the compiler vectorises what the level allows).
+struct lane_generators {
+  std::uint64_t state[lanes], increment[lanes];
+  explicit lane_generators(const lane_stream& s) {
+    __builtin_memcpy(state, s.state, sizeof state);
+    __builtin_memcpy(increment, s.increment, sizeof increment);
+  }
+  void store(std::uint64_t* to) const { __builtin_memcpy(to, state, sizeof state); }
+  void load(const std::uint64_t* from) { __builtin_memcpy(state, from, sizeof state); }
+  std::uint32_t row(std::uint32_t range, std::uint32_t threshold, std::uint32_t scale, std::uint64_t* out) {
+    std::uint32_t bad = 0;
     for (std::uint32_t l = 0; l < lanes; ++l) {
-      const std::uint32_t k = i + l;
-      const char* at = k < main    ? table + offset[k]
-                       : k < draws ? single_entries + offset[k]
-                                   : reinterpret_cast<const char*>(zero);
-      lane[l] += entry(at);
+      const std::uint64_t product = static_cast<std::uint64_t>(pcg_output(state[l])) * range;
+      state[l] = state[l] * pcg_multiplier + increment[l];
+      out[l] = (product >> 32) << scale;
+      bad |= static_cast<std::uint32_t>(product) < threshold;
     }
+    return bad;
   }
-  const f64x2 total = ((lane[0] + lane[4]) + (lane[2] + lane[6])) + ((lane[1] + lane[5]) + (lane[3] + lane[7]));
-  out[0] = total[0];
-  out[1] = total[1];
+};
+inline std::uint32_t index_scale(std::uint32_t scale) {
+  return scale;
+}
+#endif
+
+// After a rejection in rows [first, first + m): the rows again lane by lane, word by word, from
+// each lane's state before them (start), which gives the same draws wherever no word was
+// rejected; then every lane moves on by as many steps as the hungriest lane took.
+inline void redraw_rows(lane_generators& generators, const std::uint64_t* start, const std::uint64_t* increment,
+                        const draw_plan& plan, std::uint32_t first, std::uint32_t m, std::uint64_t* index) {
+  std::uint32_t rows = 0;
+  for (std::uint32_t l = 0; l < lanes; ++l) {
+    std::uint64_t state = start[l];
+    std::uint32_t steps = 0;
+    for (std::uint32_t k = 0; k < m; ++k)
+      for (;;) {
+        const std::uint64_t product = static_cast<std::uint64_t>(pcg_output(state)) * plan.range[first + k];
+        state = state * pcg_multiplier + increment[l];
+        ++steps;
+        if (static_cast<std::uint32_t>(product) >= plan.threshold[first + k]) {
+          index[lanes * k + l] = (product >> 32) << plan.scale;
+          break;
+        }
+      }
+    rows = steps > rows ? steps : rows;
+  }
+  std::uint64_t state[lanes];
+  for (std::uint32_t l = 0; l < lanes; ++l) {
+    state[l] = start[l];
+    for (std::uint32_t k = 0; k < rows; ++k) state[l] = state[l] * pcg_multiplier + increment[l];
+  }
+  generators.load(state);
 }
 
-// The draws of a whole resample first, then the sums: loads that read an index stored just
-// before stall on store forwarding, so fusing the two passes was slower (bench/RESULTS.md).
-void bootstrap_sums(word_stream& s, const draw_plan& plan, const bootstrap_shape& shape, const double* entries,
-                    std::uint64_t count, double* out, std::uint32_t* index) {
-  const std::uint32_t groups = shape.groups;
-  for (std::uint64_t r = 0; r < count; ++r, out += 2 * groups) {
-    draw(s, plan, index);
-    for (std::uint32_t g = 0, first = 0; g < groups; first += shape.draws[g], ++g)
-      entry_sums(reinterpret_cast<const char*>(entries + 2 * static_cast<std::size_t>(shape.pair_base[g])),
-                 reinterpret_cast<const char*>(entries + 2 * static_cast<std::size_t>(shape.single_base[g])),
-                 index + first, shape.draws[g], shape.pairs[g], out + 2 * g);
+// Rows [first, first + m) of a chunk into index (index[8 * k + l]: draw first + k of lane l).
+inline void draw_rows(lane_generators& generators, const std::uint64_t* increment, const draw_plan& plan,
+                      std::uint32_t first, std::uint32_t m, std::uint64_t* index) {
+  std::uint64_t start[lanes];
+  generators.store(start);
+  const auto scale = index_scale(plan.scale);
+  const std::uint32_t* const range = plan.range + first;
+  const std::uint32_t* const threshold = plan.threshold + first;
+  std::uint32_t bad = 0;
+  for (std::uint32_t k = 0; k < m; ++k) bad |= generators.row(range[k], threshold[k], scale, index + lanes * k);
+  if (bad != 0) redraw_rows(generators, start, increment, plan, first, m, index);
+}
+
+typedef double f64x2 __attribute__((vector_size(16)));
+
+// Adds row k's entries to the eight lanes' sums: lane l picks the 16-byte entry (a sum and a sum
+// of squares side by side, so one load and one two-wide addition take both) at byte offset
+// o[l] of table.
+inline void add_row(const char* table, const std::uint64_t* o, f64x2* lane) {
+  for (std::uint32_t l = 0; l < lanes; ++l) {  // constant displacements: no index arithmetic
+    f64x2 e;
+    __builtin_memcpy(&e, table + o[l], sizeof e);
+    lane[l] += e;
   }
+}
+
+// The sums of group g's rows [low, high) of the current segment (starting at row `first`), added
+// to the chunk's sums in out; `during` runs after each row (the next chunk's draws).
+template <class During>
+inline void group_rows(const bootstrap_shape& shape, const double* entries, std::uint32_t g, std::uint32_t begin,
+                       std::uint32_t low, std::uint32_t high, std::uint32_t first, const std::uint64_t* index,
+                       double* out, During&& during) {
+  const std::uint32_t split = begin + shape.pairs[g];  // pair draws before, single draws after
+  double* const group_sums = out + 2 * lanes * g;
+  f64x2 lane[lanes];
+  for (std::uint32_t l = 0; l < lanes; ++l) lane[l] = f64x2{group_sums[l], group_sums[lanes + l]};
+  const char* const pairs = reinterpret_cast<const char*>(entries + 2 * static_cast<std::size_t>(shape.pair_base[g]));
+  const char* const singles =
+      reinterpret_cast<const char*>(entries + 2 * static_cast<std::size_t>(shape.single_base[g]));
+  const std::uint32_t pairs_end = high < split ? high : split;
+  for (std::uint32_t k = low; k < pairs_end; ++k) {
+    add_row(pairs, index + lanes * (k - first), lane);
+    during(k);
+  }
+  for (std::uint32_t k = low > split ? low : split; k < high; ++k) {
+    add_row(singles, index + lanes * (k - first), lane);
+    during(k);
+  }
+  for (std::uint32_t l = 0; l < lanes; ++l) {
+    group_sums[l] = lane[l][0];
+    group_sums[lanes + l] = lane[l][1];
+  }
+}
+
+// Chunks of eight resamples. When a resample's draws fit one segment (every group small), the
+// next chunk's rows are drawn while this chunk's are summed: the vector work of the draws then
+// overlaps the waits of the table loads, and the indices are read long after they were
+// stored. Otherwise segment by segment, draws first and then sums, the sums kept in out.
+void bootstrap_sums(lane_stream& s, const draw_plan& plan, const bootstrap_shape& shape, const double* entries,
+                    std::uint64_t count, double* out, std::uint64_t* scratch) {
+  const std::uint32_t groups = shape.groups;
+  const std::size_t chunk = 2 * lanes * static_cast<std::size_t>(groups);  // doubles of one chunk
+  lane_generators generators(s);
+  if (plan.count <= lockstep_segment) {
+    std::uint64_t* current = scratch;
+    std::uint64_t* next = scratch + lanes * lockstep_segment;
+    std::uint64_t start[lanes];
+    const auto scale = index_scale(plan.scale);
+    if (count > 0) draw_rows(generators, s.increment, plan, 0, plan.count, current);
+    for (std::uint64_t r = 0; r < count; r += lanes, out += chunk) {
+      for (std::size_t i = 0; i < chunk; ++i) out[i] = 0.0;
+      std::uint32_t bad = 0;
+      // local copies: the stores of the draws could otherwise alias the plan and be reloaded
+      const std::uint32_t* const range = plan.range;
+      const std::uint32_t* const threshold = plan.threshold;
+      std::uint64_t* const rows = next;
+      auto draw_next = [&generators, &bad, range, threshold, scale, rows](std::uint32_t k) {
+        bad |= generators.row(range[k], threshold[k], scale, rows + lanes * k);
+      };
+      const bool more = r + lanes < count;
+      if (more) generators.store(start);
+      for (std::uint32_t g = 0, begin = 0; g < groups; begin += shape.draws[g], ++g) {
+        const std::uint32_t end = begin + shape.draws[g];
+        if (more)
+          group_rows(shape, entries, g, begin, begin, end, 0, current, out, draw_next);
+        else
+          group_rows(shape, entries, g, begin, begin, end, 0, current, out, [](std::uint32_t) {});
+      }
+      if (more && bad != 0) redraw_rows(generators, start, s.increment, plan, 0, plan.count, next);
+      std::uint64_t* t = current;
+      current = next;
+      next = t;
+    }
+  } else {
+    for (std::uint64_t r = 0; r < count; r += lanes, out += chunk) {
+      for (std::size_t i = 0; i < chunk; ++i) out[i] = 0.0;
+      for (std::uint32_t first = 0; first < plan.count; first += lockstep_segment) {
+        const std::uint32_t m = plan.count - first < lockstep_segment ? plan.count - first : lockstep_segment;
+        draw_rows(generators, s.increment, plan, first, m, scratch);
+        for (std::uint32_t g = 0, begin = 0; g < groups && begin < first + m; begin += shape.draws[g], ++g) {
+          const std::uint32_t end = begin + shape.draws[g];
+          if (end <= first) continue;
+          group_rows(shape, entries, g, begin, begin > first ? begin : first, end < first + m ? end : first + m, first,
+                     scratch, out, [](std::uint32_t) {});
+        }
+      }
+    }
+  }
+  generators.store(s.state);
+}
+
+void lockstep_draws(lane_stream& s, const draw_plan& plan, std::uint64_t chunks, std::uint64_t* out) {
+  lane_generators generators(s);
+  for (std::uint64_t c = 0; c < chunks; ++c)
+    for (std::uint32_t first = 0; first < plan.count; first += lockstep_segment) {
+      const std::uint32_t m = plan.count - first < lockstep_segment ? plan.count - first : lockstep_segment;
+      draw_rows(generators, s.increment, plan, first, m, out + lanes * (c * plan.count + first));
+    }
+  generators.store(s.state);
 }
 
 // ---- quantile brackets ----------------------------------------------------------------------
@@ -377,7 +534,8 @@ void bracket_scan(const double* x, std::size_t n, const double* bounds, double* 
 extern const resample_kernels kernels{
 #define CONTRASTA_STRINGIFY2(x) #x
 #define CONTRASTA_STRINGIFY(x) CONTRASTA_STRINGIFY2(x)
-    CONTRASTA_STRINGIFY(CONTRASTA_KERNEL_LEVEL), refill, draws, permutation_sums, bracket_scan, bootstrap_sums};
+    CONTRASTA_STRINGIFY(CONTRASTA_KERNEL_LEVEL), refill, draws, permutation_sums, bracket_scan, bootstrap_sums,
+    lockstep_draws};
 #undef CONTRASTA_STRINGIFY
 #undef CONTRASTA_STRINGIFY2
 
