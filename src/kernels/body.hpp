@@ -303,10 +303,15 @@ struct lane_generators {
   void store(std::uint64_t* to) const { __builtin_memcpy(to, state, sizeof state); }
   void load(const std::uint64_t* from) { __builtin_memcpy(state, from, sizeof state); }
   std::uint32_t row(std::uint32_t range, std::uint32_t threshold, std::uint32_t scale, std::uint64_t* out) {
+    std::uint32_t word[lanes];
+    for (std::uint32_t l = 0; l < lanes; ++l) {
+      word[l] = pcg_output(state[l]);
+      state[l] = state[l] * pcg_multiplier + increment[l];
+    }
+    // apart from the words, so that this loop vectorises
     std::uint32_t bad = 0;
     for (std::uint32_t l = 0; l < lanes; ++l) {
-      const std::uint64_t product = static_cast<std::uint64_t>(pcg_output(state[l])) * range;
-      state[l] = state[l] * pcg_multiplier + increment[l];
+      const std::uint64_t product = static_cast<std::uint64_t>(word[l]) * range;
       out[l] = (product >> 32) << scale;
       bad |= static_cast<std::uint32_t>(product) < threshold;
     }
