@@ -4,9 +4,10 @@
 // and GCC vector extensions, never an inline function shared with other files: a shared inline
 // function compiled for AVX-512 could otherwise be the copy the linker keeps for everyone.
 //
-// Two ways to compute the same numbers: AVX-512 vectors where the level has them, and plain
-// loops over eight scalar lanes elsewhere (which the compiler vectorises as the level allows;
-// 64-byte vector types split into halves ran several times slower on AVX2). Definitions every
+// Two ways to compute the same numbers: AVX-512 vectors where the level has them (and AVX2
+// vectors for the bootstrap's generators), and plain loops over eight scalar lanes elsewhere
+// (which the compiler vectorises as the level allows; 64-byte vector types split into halves
+// ran several times slower on AVX2). Definitions every
 // level follows exactly (resample_kernels.hpp):
 // - words: lane l of eight pcg32 streams gives words l, l+8, l+16, ...;
 // - a draw takes the next word w and returns (w * range) >> 32, unless the low half of the
@@ -24,6 +25,10 @@
 
 #if defined(__AVX512F__) && defined(__AVX512DQ__) && defined(__AVX512VL__)
 #define CONTRASTA_KERNEL_AVX512 1
+#elif defined(__AVX2__)
+#define CONTRASTA_KERNEL_AVX2 1
+#endif
+#if defined(CONTRASTA_KERNEL_AVX512) || defined(CONTRASTA_KERNEL_AVX2)
 // GCC 12's AVX-512 intrinsics start from an undefined register that it then reports as used
 // uninitialised (GCC bug 105593, fixed in GCC 13); the pragma covers the header's own lines.
 #if defined(__GNUC__) && !defined(__clang__)
@@ -287,6 +292,54 @@ struct lane_generators {
     _mm512_storeu_si512(out, _mm512_sll_epi64(_mm512_srli_epi64(product, 32), scale));
     // the low halves of the products are the even dwords
     return _mm512_mask_cmplt_epu32_mask(0x5555, product, _mm512_set1_epi32(static_cast<int>(threshold)));
+  }
+};
+inline __m128i index_scale(std::uint32_t scale) {
+  return _mm_cvtsi32_si128(static_cast<int>(scale));
+}
+#elif defined(CONTRASTA_KERNEL_AVX2)
+// The eight generators in two vectors of four. AVX2 has no 64-bit multiply: the low half of a
+// 64-bit product is a_lo b_lo + ((a_hi b_lo + a_lo b_hi) << 32), three 32-bit multiplies, which
+// for four lanes still beats four scalar ones with the output function around them.
+struct lane_generators {
+  __m256i state[2], increment[2];
+  explicit lane_generators(const lane_stream& s) {
+    for (int h = 0; h < 2; ++h)
+      increment[h] = _mm256_loadu_si256(reinterpret_cast<const __m256i*>(s.increment + 4 * h));
+    load(s.state);
+  }
+  void store(std::uint64_t* to) const {
+    for (int h = 0; h < 2; ++h) _mm256_storeu_si256(reinterpret_cast<__m256i*>(to + 4 * h), state[h]);
+  }
+  void load(const std::uint64_t* from) {
+    for (int h = 0; h < 2; ++h) state[h] = _mm256_loadu_si256(reinterpret_cast<const __m256i*>(from + 4 * h));
+  }
+  static __m256i times_multiplier(__m256i a) {
+    const __m256i low = _mm256_set1_epi64x(static_cast<long long>(pcg_multiplier & 0xffffffffULL));
+    const __m256i high = _mm256_set1_epi64x(static_cast<long long>(pcg_multiplier >> 32));
+    const __m256i cross = _mm256_add_epi64(_mm256_mul_epu32(_mm256_srli_epi64(a, 32), low), _mm256_mul_epu32(a, high));
+    return _mm256_add_epi64(_mm256_mul_epu32(a, low), _mm256_slli_epi64(cross, 32));
+  }
+  std::uint32_t row(std::uint32_t range, std::uint32_t threshold, __m128i scale, std::uint64_t* out) {
+    const __m256i bound = _mm256_set1_epi32(static_cast<int>(range));
+    const __m256i sign = _mm256_set1_epi32(static_cast<int>(0x80000000U));
+    const __m256i limit = _mm256_set1_epi32(static_cast<int>(threshold ^ 0x80000000U));
+    std::uint32_t bad = 0;
+    for (int h = 0; h < 2; ++h) {
+      const __m256i st = state[h];
+      const __m256i x = _mm256_srli_epi64(_mm256_xor_si256(_mm256_srli_epi64(st, 18), st), 27);
+      // rotate the low dwords right by st >> 59; a variable shift by 32 gives 0, as rotation 0 needs
+      const __m256i rotation = _mm256_srli_epi64(st, 59);
+      const __m256i word = _mm256_or_si256(_mm256_srlv_epi32(x, rotation),
+                                           _mm256_sllv_epi32(x, _mm256_sub_epi32(_mm256_set1_epi32(32), rotation)));
+      state[h] = _mm256_add_epi64(times_multiplier(st), increment[h]);
+      const __m256i product = _mm256_mul_epu32(word, bound);
+      _mm256_storeu_si256(reinterpret_cast<__m256i*>(out + 4 * h), _mm256_sll_epi64(_mm256_srli_epi64(product, 32), scale));
+      // low half below the threshold, unsigned: both sign bits flipped, then a signed compare
+      const __m256i below = _mm256_cmpgt_epi32(limit, _mm256_xor_si256(product, sign));
+      bad |= static_cast<std::uint32_t>(_mm256_movemask_ps(_mm256_castsi256_ps(below))) & 0x55U;
+    }
+    return bad;
   }
 };
 inline __m128i index_scale(std::uint32_t scale) {
