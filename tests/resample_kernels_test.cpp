@@ -318,6 +318,41 @@ TEST_CASE("bootstrap sums: one draw on [0, n^2) for each pair of picks in small 
   }
 }
 
+TEST_CASE("bootstrap sums do not depend on how the resamples are split into kernel calls") {
+  // The kernel draws the next chunk while it sums this one, except for the first chunk of a
+  // call; calls of 16, 40 and 444 resamples (the last chunk part used) must give the rows of
+  // one call of 500, continuing the same stream (the kernel's own contract: no outside source).
+  const std::vector<std::vector<double>> groups{noisy_values(11, 8), noisy_values(4, 9), noisy_values(37, 11)};
+  const resampling_pool pool = pool_of(groups);
+  const bootstrap_table table(pool);
+  const draw_ranges d(table.ranges, 4);
+  const bootstrap_shape shape = table.shape();
+  const std::size_t chunk = 16 * groups.size();
+  for (const resample_kernels* k : levels()) {
+    CAPTURE(std::string(k->level));
+    std::vector<double> whole(63 * chunk), parts(64 * chunk);
+    std::vector<std::uint64_t> scratch(16 * lockstep_segment);
+    lane_stream one;
+    start_lanes(one, 5, 2, 1);
+    k->bootstrap_sums(one, d.plan(), shape, table.entries.data(), 500, whole.data(), scratch.data());
+    lane_stream split;
+    start_lanes(split, 5, 2, 1);
+    double* out = parts.data();
+    for (std::uint64_t count : {16, 40, 444}) {
+      k->bootstrap_sums(split, d.plan(), shape, table.entries.data(), count, out, scratch.data());
+      out += (count + 7) / 8 * chunk;
+    }
+    // resamples 0..499 sit in the same places: 16 and 40 are whole chunks
+    for (std::uint64_t r = 0; r < 500; ++r)
+      for (std::size_t g = 0; g < groups.size(); ++g)
+        for (std::size_t half = 0; half < 2; ++half) {
+          const std::size_t at = ((r / 8) * groups.size() + g) * 16 + half * 8 + r % 8;
+          REQUIRE(same_bits(whole[at], parts[at]));
+        }
+    for (std::size_t l = 0; l < 8; ++l) REQUIRE(one.state[l] == split.state[l]);
+  }
+}
+
 TEST_CASE("bootstrap picks with pair entries follow the multinomial law") {
   // Values 1, 10, 100 (and 1000) make each resample sum name its counts. With n picks from n
   // values the counts are multinomial(n; 1/n, ..., 1/n) (Efron & Tibshirani 1993, ch. 6).
